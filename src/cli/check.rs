@@ -1,0 +1,116 @@
+//! `junctura check`: validate a scenario and survey both sides.
+
+use super::common::{range, to_json, Format, ScenarioArgs};
+use junctura::metric::{default_range, survey, RegionKind, SideFns, SideSurvey};
+use junctura::output::print_stdout;
+use junctura::roots::RootOptions;
+use junctura::scenario::{Scenario, Which};
+use junctura::Result;
+use serde::Serialize;
+
+/// Arguments of `check`.
+#[derive(clap::Args, Debug)]
+pub struct Args {
+    #[command(flatten)]
+    scenario: ScenarioArgs,
+    /// Lower end of the radius range (default: 1e-3 times the largest parameter, at least 1e-3).
+    #[arg(long)]
+    from: Option<f64>,
+    /// Upper end of the radius range (default: 1e3 times the largest parameter, at least 1e3).
+    #[arg(long)]
+    to: Option<f64>,
+    /// Output format.
+    #[arg(long, value_enum, default_value_t = Format::Text)]
+    format: Format,
+}
+
+#[derive(Serialize)]
+struct SideReport<'a> {
+    keep: &'a str,
+    normal_sign: f64,
+    #[serde(rename = "A")]
+    a: &'a str,
+    #[serde(rename = "B")]
+    b: &'a str,
+    #[serde(flatten)]
+    survey: SideSurvey,
+}
+
+#[derive(Serialize)]
+struct Report<'a> {
+    scenario: &'a str,
+    provenance: String,
+    dimension: u32,
+    shell_kind: &'a str,
+    from: f64,
+    to: f64,
+    minus: SideReport<'a>,
+    plus: SideReport<'a>,
+}
+
+pub fn run(args: Args) -> Result<()> {
+    let s = args.scenario.load()?;
+    let (lo, hi) = range(args.from, args.to, default_range(&s))?;
+    let report = build(&s, lo, hi);
+    match args.format {
+        Format::Json => print_stdout(&to_json(&report)),
+        Format::Text | Format::Latex => print_stdout(&text(&report)),
+    }
+    Ok(())
+}
+
+fn build(s: &Scenario, lo: f64, hi: f64) -> Report<'_> {
+    let opts = RootOptions { samples: 4000, ..Default::default() };
+    let side = |w: Which| {
+        let sd = s.side(w);
+        let fns = SideFns::new(sd, s.params.values());
+        SideReport {
+            keep: sd.keep.name(),
+            normal_sign: sd.normal_sign(),
+            a: sd.a.source(),
+            b: sd.b.source(),
+            survey: survey(&fns, lo, hi, &opts),
+        }
+    };
+    Report {
+        scenario: &s.name,
+        provenance: s.provenance(),
+        dimension: s.dimension,
+        shell_kind: s.shell.kind.name(),
+        from: lo,
+        to: hi,
+        minus: side(Which::Minus),
+        plus: side(Which::Plus),
+    }
+}
+
+fn text(r: &Report) -> String {
+    let mut o = format!("scenario: {}\n{}\nshell: {}, D = {}, radii {} .. {}\n", r.scenario, r.provenance, r.shell_kind, r.dimension, r.from, r.to);
+    for (name, sd) in [("minus", &r.minus), ("plus", &r.plus)] {
+        o.push_str(&format!("\n[{name}] keep = {}, sign of n^r = {:+}\n  A(r) = {}\n  B(r) = {}\n", sd.keep, sd.normal_sign, sd.a, sd.b));
+        if sd.survey.horizons.is_empty() {
+            o.push_str("  horizons: none in range\n");
+        }
+        for h in &sd.survey.horizons {
+            let deg = if h.degenerate { " (degenerate: double root, numerically ill-conditioned)" } else { "" };
+            o.push_str(&format!("  horizon at r = {:.15}  B'(r) = {:.6e}{deg}\n", h.radius, h.b_slope));
+        }
+        for p in &sd.survey.poles {
+            o.push_str(&format!("  B changes sign through a pole near r = {p:.6} (not a horizon)\n"));
+        }
+        for g in &sd.survey.regions {
+            let k = match g.kind {
+                RegionKind::R => "R-region (B > 0, static shells possible)",
+                RegionKind::T => "T-region (B < 0, r is timelike)",
+            };
+            o.push_str(&format!("  {:.6} < r < {:.6}: {k}\n", g.from, g.to));
+        }
+        if sd.survey.photon_orbits.is_empty() {
+            o.push_str("  circular photon orbits: none in range\n");
+        }
+        for p in &sd.survey.photon_orbits {
+            o.push_str(&format!("  circular photon orbit at r = {p:.15}\n"));
+        }
+    }
+    o
+}

@@ -1,0 +1,7 @@
+//! The `junctura` command-line program: a thin layer over the library.
+
+mod cli;
+
+fn main() {
+    std::process::exit(cli::run());
+}

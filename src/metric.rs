@@ -1,0 +1,217 @@
+//! One side's geometry: A(r), B(r) and their derivatives, horizons (roots of B), R- and T-regions, and
+//! circular photon orbits (extrema of A/r^2).
+
+use crate::expr::{Expr, Scalar};
+use crate::roots::{find_roots, Root, RootKind, RootOptions};
+use crate::scenario::{Scenario, Side};
+use num_dual::{Dual2, Dual3};
+use serde::Serialize;
+
+/// Evaluate A and B of one side at fixed real parameter values, over any number type.
+#[derive(Debug, Clone, Copy)]
+pub struct SideFns<'a> {
+    /// g_tt = -A(r).
+    pub a: &'a Expr,
+    /// g_rr = 1/B(r).
+    pub b: &'a Expr,
+    /// Parameter values.
+    pub params: &'a [f64],
+}
+
+impl<'a> SideFns<'a> {
+    /// Bind a side to parameter values.
+    pub fn new(side: &'a Side, params: &'a [f64]) -> Self {
+        SideFns { a: &side.a, b: &side.b, params }
+    }
+
+    /// A(r).
+    #[inline]
+    pub fn a<T: Scalar>(&self, r: T) -> T {
+        self.a.eval_at(r, self.params)
+    }
+
+    /// B(r).
+    #[inline]
+    pub fn b<T: Scalar>(&self, r: T) -> T {
+        self.b.eval_at(r, self.params)
+    }
+
+    /// dA/dr evaluated at a dual-number radius: A' as a Dual2 from one third-order evaluation.
+    #[inline]
+    pub fn a_prime_dual2(&self, r0: f64) -> (Dual2<f64, f64>, Dual2<f64, f64>) {
+        let d: Dual3<f64, f64> = self.a(Dual3::new(r0, 1.0, 0.0, 0.0));
+        (Dual2::new(d.re, d.v1, d.v2), Dual2::new(d.v1, d.v2, d.v3))
+    }
+
+    /// B and B' at a radius, each as a Dual2 in the radius (from one third-order evaluation).
+    #[inline]
+    pub fn b_prime_dual2(&self, r0: f64) -> (Dual2<f64, f64>, Dual2<f64, f64>) {
+        let d: Dual3<f64, f64> = self.b(Dual3::new(r0, 1.0, 0.0, 0.0));
+        (Dual2::new(d.re, d.v1, d.v2), Dual2::new(d.v1, d.v2, d.v3))
+    }
+}
+
+/// An R-region (B > 0: r is a space coordinate) or a T-region (B < 0: r is a time coordinate).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum RegionKind {
+    /// B > 0.
+    R,
+    /// B < 0.
+    T,
+}
+
+/// An interval of r between horizons with one region kind.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Region {
+    /// Lower end.
+    pub from: f64,
+    /// Upper end.
+    pub to: f64,
+    /// R or T.
+    pub kind: RegionKind,
+}
+
+/// A horizon: a root of B.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Horizon {
+    /// Areal radius.
+    pub radius: f64,
+    /// True for a degenerate (double) root, e.g. extremal Reissner-Nordstrom.
+    pub degenerate: bool,
+    /// dB/dr at the horizon (for a Killing horizon with A = B this is twice the surface gravity).
+    pub b_slope: f64,
+}
+
+/// Everything `check` reports for one side.
+#[derive(Debug, Clone, Serialize)]
+pub struct SideSurvey {
+    /// Horizons in the range.
+    pub horizons: Vec<Horizon>,
+    /// R- and T-regions covering the range.
+    pub regions: Vec<Region>,
+    /// Radii of circular photon orbits (extrema of A/r^2) inside R-regions.
+    pub photon_orbits: Vec<f64>,
+    /// Sign changes of B rejected as poles (B passes through infinity there).
+    pub poles: Vec<f64>,
+}
+
+/// Horizons of a side in [lo, hi]: every root of B, simple or degenerate.
+pub fn horizons(fns: &SideFns, lo: f64, hi: f64, opts: &RootOptions) -> (Vec<Horizon>, Vec<f64>) {
+    let f = |r: f64| {
+        let d: Dual2<f64, f64> = fns.b(Dual2::new(r, 1.0, 0.0));
+        Some((d.re, d.v1))
+    };
+    let g = |r: f64| {
+        let d: Dual2<f64, f64> = fns.b(Dual2::new(r, 1.0, 0.0));
+        Some((d.v1, d.v2))
+    };
+    let scan = find_roots(&f, Some(&g), lo, hi, opts);
+    let hs = scan
+        .roots
+        .iter()
+        .map(|r: &Root| Horizon { radius: r.x, degenerate: r.kind == RootKind::Double, b_slope: r.slope })
+        .collect();
+    (hs, scan.poles.iter().map(|p| p.x).collect())
+}
+
+/// R- and T-regions on [lo, hi] given the horizons there.
+pub fn regions(fns: &SideFns, lo: f64, hi: f64, horizons: &[Horizon], poles: &[f64]) -> Vec<Region> {
+    let mut cuts: Vec<f64> = horizons.iter().filter(|h| !h.degenerate).map(|h| h.radius).collect();
+    cuts.extend(poles);
+    cuts.sort_by(|a, b| a.total_cmp(b));
+    let mut edges = vec![lo];
+    edges.extend(cuts.into_iter().filter(|c| *c > lo && *c < hi));
+    edges.push(hi);
+    let mut out: Vec<Region> = Vec::new();
+    for w in edges.windows(2) {
+        let mid = if w[0] > 0.0 && w[1] / w[0] > 100.0 { (w[0] * w[1]).sqrt() } else { 0.5 * (w[0] + w[1]) };
+        let b: f64 = fns.b(mid);
+        let kind = if b > 0.0 { RegionKind::R } else { RegionKind::T };
+        match out.last_mut() {
+            Some(last) if last.kind == kind => last.to = w[1],
+            _ => out.push(Region { from: w[0], to: w[1], kind }),
+        }
+    }
+    out
+}
+
+/// Circular photon orbits: extrema of A/r^2, i.e. roots of r A' - 2 A, kept where B > 0 and A > 0.
+/// (For any static spherically symmetric metric the radial null geodesic potential is L^2 A/r^2; common
+/// practice, e.g. Hartle 2003 sec. 9.3 for Schwarzschild's r = 3M.)
+pub fn photon_orbits(fns: &SideFns, lo: f64, hi: f64, opts: &RootOptions) -> Vec<f64> {
+    let h = |r: f64| {
+        let d: Dual3<f64, f64> = fns.a(Dual3::new(r, 1.0, 0.0, 0.0));
+        // g = r A' - 2A, g' = r A'' - A', g'' = r A''' .
+        (d.v1 * r - 2.0 * d.re, d.v2 * r - d.v1, d.v3 * r)
+    };
+    let f = |r: f64| {
+        let (g, gp, _) = h(r);
+        Some((g, gp))
+    };
+    let fp = |r: f64| {
+        let (_, gp, gpp) = h(r);
+        Some((gp, gpp))
+    };
+    find_roots(&f, Some(&fp), lo, hi, opts)
+        .roots
+        .into_iter()
+        .map(|r| r.x)
+        .filter(|&r| fns.b(r) > 0.0 && fns.a(r) > 0.0)
+        .collect()
+}
+
+/// Survey one side over [lo, hi].
+pub fn survey(fns: &SideFns, lo: f64, hi: f64, opts: &RootOptions) -> SideSurvey {
+    let (hs, poles) = horizons(fns, lo, hi, opts);
+    let regions = regions(fns, lo, hi, &hs, &poles);
+    let photon_orbits = photon_orbits(fns, lo, hi, opts);
+    SideSurvey { horizons: hs, regions, photon_orbits, poles }
+}
+
+/// A length scale for default ranges: the largest |parameter| (at least 1), a proxy for M in geometric units.
+pub fn length_scale(scenario: &Scenario) -> f64 {
+    scenario.params.values().iter().fold(1.0f64, |m, v| m.max(v.abs())).min(1e12)
+}
+
+/// The default radius range for surveys: [1e-3 L, 1e3 L] with L from [`length_scale`].
+pub fn default_range(scenario: &Scenario) -> (f64, f64) {
+    let l = length_scale(scenario);
+    (1e-3 * l, 1e3 * l)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn reissner_nordstrom_horizons_and_photon_orbit() {
+        // Textbook: r_pm = m +- sqrt(m^2 - q^2); photon sphere (3m + sqrt(9m^2 - 8q^2))/2
+        // (e.g. Chandrasekhar, The Mathematical Theory of Black Holes, 1983, sec. 40; from memory).
+        let names = vec!["m".to_string(), "q".to_string()];
+        let e = Expr::parse("1 - 2*m/r + q^2/r^2", "r", &names).unwrap();
+        let p = [1.0, 0.8];
+        let fns = SideFns { a: &e, b: &e, params: &p };
+        let s = survey(&fns, 0.01, 100.0, &RootOptions::default());
+        assert_eq!(s.horizons.len(), 2);
+        assert!((s.horizons[0].radius - 0.4).abs() < 1e-13);
+        assert!((s.horizons[1].radius - 1.6).abs() < 1e-13);
+        assert_eq!(s.photon_orbits.len(), 1);
+        let ph = (3.0 + (9.0f64 - 8.0 * 0.64).sqrt()) / 2.0;
+        assert!((s.photon_orbits[0] - ph).abs() < 1e-12);
+        let kinds: Vec<RegionKind> = s.regions.iter().map(|r| r.kind).collect();
+        assert_eq!(kinds, vec![RegionKind::R, RegionKind::T, RegionKind::R]);
+    }
+
+    #[test]
+    fn extremal_horizon_is_degenerate() {
+        let names = vec!["m".to_string(), "q".to_string()];
+        let e = Expr::parse("1 - 2*m/r + q^2/r^2", "r", &names).unwrap();
+        let p = [1.0, 1.0];
+        let fns = SideFns { a: &e, b: &e, params: &p };
+        let (hs, _) = horizons(&fns, 0.01, 100.0, &RootOptions::default());
+        assert_eq!(hs.len(), 1);
+        assert!(hs[0].degenerate);
+        assert!((hs[0].radius - 1.0).abs() < 1e-8);
+    }
+}

@@ -28,9 +28,12 @@
 #![warn(missing_docs)]
 
 pub mod error;
+pub mod export;
 pub mod expr;
+pub mod junction;
 pub mod metric;
 pub mod output;
+pub mod report;
 pub mod roots;
 pub mod scenario;
 

@@ -2,6 +2,7 @@
 
 mod check;
 mod common;
+mod derive;
 
 use clap::{Parser, Subcommand};
 
@@ -17,6 +18,9 @@ pub struct Cli {
 enum Command {
     /// Validate a scenario and survey each side: horizons, R-/T-regions, circular photon orbits.
     Check(check::Args),
+    /// Junction quantities at one shell state: sigma, p (or S^l_l, S^theta_theta), potential, mass,
+    /// energy conditions, linear stability; formulas as text or LaTeX.
+    Derive(derive::Args),
 }
 
 /// Run the program; returns the process exit code.
@@ -31,6 +35,7 @@ pub fn run() -> i32 {
     };
     let result = match cli.command {
         Command::Check(a) => check::run(a),
+        Command::Derive(a) => derive::run(a),
     };
     match result {
         Ok(()) => 0,

@@ -75,6 +75,12 @@ impl Expr {
         eval::eval_node(&self.node, x, |k| T::from(params[k]))
     }
 
+    /// Evaluate at `x` with parameters supplied by a function (e.g. lifted into a nested dual type).
+    #[inline]
+    pub fn eval_with<T: Scalar, P: Fn(usize) -> T + Copy>(&self, x: T, param: P) -> T {
+        eval::eval_node(&self.node, x, param)
+    }
+
     /// Plain value.
     #[inline]
     pub fn value(&self, x: f64, params: &[f64]) -> f64 {

@@ -1,0 +1,56 @@
+//! `junctura derive`: junction quantities, potential and stability at one shell state.
+
+use super::common::{to_json, Format, ScenarioArgs};
+use junctura::export::derive::{latex, text};
+use junctura::output::{print_stdout, warn};
+use junctura::report::derive::{derive, State};
+use junctura::{Error, Result};
+
+/// Arguments of `derive`.
+#[derive(clap::Args, Debug)]
+pub struct Args {
+    #[command(flatten)]
+    scenario: ScenarioArgs,
+    /// Shell radius R (areal radius).
+    #[arg(long)]
+    radius: f64,
+    /// dR/dtau (timelike) or dR/dl (spacelike) for a moving shell; default 0 (static).
+    #[arg(long, default_value_t = 0.0, allow_negative_numbers = true)]
+    velocity: f64,
+    /// d^2R/dtau^2 (or d^2R/dl^2); default 0.
+    #[arg(long, default_value_t = 0.0, allow_negative_numbers = true)]
+    acceleration: f64,
+    /// Output format.
+    #[arg(long, value_enum, default_value_t = Format::Text)]
+    format: Format,
+}
+
+pub fn run(args: Args) -> Result<()> {
+    let s = args.scenario.load()?;
+    for (name, v) in [("--radius", args.radius), ("--velocity", args.velocity), ("--acceleration", args.acceleration)] {
+        if !v.is_finite() {
+            return Err(Error::input(format!("{name} {v} is not a finite number")));
+        }
+    }
+    if args.radius <= 0.0 {
+        return Err(Error::input(format!("--radius {}: the areal radius must be positive", args.radius)));
+    }
+    let state = State { radius: args.radius, velocity: args.velocity, acceleration: args.acceleration };
+    let rep = derive(&s, state).map_err(|e| e.context(format!("{}", s.origin.label())))?;
+    match args.format {
+        Format::Json => {
+            for w in &rep.warnings {
+                warn(w);
+            }
+            print_stdout(&to_json(&rep))
+        }
+        Format::Text => print_stdout(&text(&rep)),
+        Format::Latex => {
+            for w in &rep.warnings {
+                warn(w);
+            }
+            print_stdout(&latex(&rep))
+        }
+    }
+    Ok(())
+}

@@ -1,0 +1,145 @@
+//! `derive` as readable text and as LaTeX.
+
+use super::{latex_num, num};
+use crate::report::derive::DeriveReport;
+
+/// Readable summary: formulas first, then the values.
+pub fn text(r: &DeriveReport) -> String {
+    let timelike = r.shell_kind == "timelike";
+    let mut o = String::new();
+    o.push_str(&format!("scenario: {}\n# {}\n", r.scenario, r.provenance));
+    o.push_str(&format!(
+        "{} shell, D = {}, R = {}{}\n",
+        r.shell_kind,
+        r.dimension,
+        num(r.radius),
+        if r.velocity != 0.0 || r.acceleration != 0.0 {
+            format!(", dR/ds = {}, d2R/ds2 = {}", num(r.velocity), num(r.acceleration))
+        } else {
+            " (static)".into()
+        }
+    ));
+    for (name, sd) in [("minus", &r.minus), ("plus", &r.plus)] {
+        o.push_str(&format!(
+            "  [{name}] keep = {}, n^r sign {:+}:  A(r) = {},  B(r) = {}\n",
+            sd.keep, sd.normal_sign, sd.a_expr, sd.b_expr
+        ));
+    }
+    o.push_str("\nformulas (sides: + plus, - minus):\n");
+    for f in &r.formulas {
+        o.push_str(&format!("  {}\n", f.text));
+    }
+    o.push_str("\nvalues:\n");
+    for (name, sd) in [("minus", &r.minus), ("plus", &r.plus)] {
+        o.push_str(&format!(
+            "  {name}: A = {}  B = {}  A' = {}  B' = {}  n^r = {}  K^s_s = {}  K^theta_theta = {}\n",
+            num(sd.a),
+            num(sd.b),
+            num(sd.a_prime),
+            num(sd.b_prime),
+            num(sd.n_r),
+            num(sd.k_ss),
+            num(sd.k_thth)
+        ));
+    }
+    o.push_str(&format!("  [K^s_s] = {}   [K^theta_theta] = {}\n", num(r.k_ss_jump), num(r.k_thth_jump)));
+    if timelike {
+        let sigma = r.sigma.unwrap_or(f64::NAN);
+        let p = r.pressure.unwrap_or(f64::NAN);
+        o.push_str(&format!("  surface energy density sigma = {}\n", num(sigma)));
+        o.push_str(&format!("  surface pressure p = {}\n", num(p)));
+        if let Some(m) = r.shell_mass {
+            o.push_str(&format!("  shell mass M_s = {}\n", num(m)));
+        }
+    } else {
+        o.push_str(&format!("  S^l_l = {}   (not an energy density)\n", num(r.s_ll.unwrap_or(f64::NAN))));
+        o.push_str(&format!("  S^theta_theta = {}   (not a pressure)\n", num(r.s_thth.unwrap_or(f64::NAN))));
+    }
+    o.push_str(&format!("  V(R) = {}\n", num(r.potential)));
+    if let Some(v1) = r.potential_first_derivative {
+        o.push_str(&format!("  V'(a) = {}  (zero at a static solution: a check)\n", num(v1)));
+    }
+    if let Some(x) = r.flux_term {
+        o.push_str(&format!("  flux term Xi = {}\n", num(x)));
+    }
+    if let (Some(c0), Some(c1), Some(sw)) = (r.v2_at_beta2_zero, r.v2_slope, r.stable_when) {
+        o.push_str(&format!("  V''(a) = {} + ({}) beta^2\n", num(c0), num(c1)));
+        let crit = r.beta2_critical.flatten();
+        let verdict = match (sw.name(), crit) {
+            ("beta2_above", Some(b)) => format!("stable for beta^2 > {}", num(b)),
+            ("beta2_below", Some(b)) => format!("stable for beta^2 < {}", num(b)),
+            ("always", _) => "stable for every beta^2".to_string(),
+            _ => "unstable for every beta^2".to_string(),
+        };
+        o.push_str(&format!("  linear stability: {verdict}\n"));
+    }
+    if let Some(e) = &r.equation_of_state {
+        o.push_str(&format!(
+            "  equation of state p = {}: P(sigma0) = {}, residual p0 - P = {}, beta^2 = {}, V''(a) = {}\n",
+            e.law,
+            num(e.pressure_from_law),
+            num(e.residual),
+            num(e.beta2),
+            num(e.potential_second_derivative)
+        ));
+    }
+    if let Some(ec) = &r.energy_conditions {
+        let yn = |b: bool| if b { "holds" } else { "violated" };
+        o.push_str(&format!(
+            "  energy conditions: null {}, weak {}, strong {}, dominant {}\n",
+            yn(ec.null),
+            yn(ec.weak),
+            yn(ec.strong),
+            yn(ec.dominant)
+        ));
+    }
+    for w in &r.warnings {
+        o.push_str(&format!("\nwarning: {w}\n"));
+    }
+    o
+}
+
+/// LaTeX: the formulas in an `align` environment and the values in a small table (amsmath, booktabs).
+pub fn latex(r: &DeriveReport) -> String {
+    let mut o = String::new();
+    o.push_str(&format!("% {}\n% requires \\usepackage{{amsmath,booktabs}}\n", r.provenance));
+    o.push_str(&format!(
+        "% {} shell, D = {}; minus side: A = {}, B = {}, keep {}; plus side: A = {}, B = {}, keep {}\n",
+        r.shell_kind, r.dimension, r.minus.a_expr, r.minus.b_expr, r.minus.keep, r.plus.a_expr, r.plus.b_expr, r.plus.keep
+    ));
+    o.push_str("\\begin{align}\n");
+    let n = r.formulas.len();
+    for (i, f) in r.formulas.iter().enumerate() {
+        o.push_str(&format!("  {}{}\n", f.latex, if i + 1 < n { " \\\\" } else { "" }));
+    }
+    o.push_str("\\end{align}\n");
+    o.push_str("\\begin{tabular}{lr}\n\\toprule\nquantity & value \\\\\n\\midrule\n");
+    o.push_str(&format!("$R$ & ${}$ \\\\\n", latex_num(r.radius)));
+    if let (Some(s), Some(p)) = (r.sigma, r.pressure) {
+        o.push_str(&format!("$\\sigma$ & ${}$ \\\\\n$p$ & ${}$ \\\\\n", latex_num(s), latex_num(p)));
+    }
+    if let (Some(s), Some(p)) = (r.s_ll, r.s_thth) {
+        o.push_str(&format!(
+            "$S^{{l}}{{}}_{{l}}$ & ${}$ \\\\\n$S^{{\\theta}}{{}}_{{\\theta}}$ & ${}$ \\\\\n",
+            latex_num(s),
+            latex_num(p)
+        ));
+    }
+    if let Some(m) = r.shell_mass {
+        o.push_str(&format!("$M_{{s}}$ & ${}$ \\\\\n", latex_num(m)));
+    }
+    if let Some(Some(b)) = r.beta2_critical {
+        o.push_str(&format!("$\\beta^{{2}}_{{c}}$ & ${}$ \\\\\n", latex_num(b)));
+    }
+    if let Some(sw) = r.stable_when {
+        let w = match sw.name() {
+            "beta2_above" => "$\\beta^{2}>\\beta^{2}_{c}$",
+            "beta2_below" => "$\\beta^{2}<\\beta^{2}_{c}$",
+            "always" => "every $\\beta^{2}$",
+            _ => "no $\\beta^{2}$",
+        };
+        o.push_str(&format!("stable for & {w} \\\\\n"));
+    }
+    o.push_str("\\bottomrule\n\\end{tabular}\n");
+    o
+}

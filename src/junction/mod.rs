@@ -1,0 +1,210 @@
+//! The Israel junction conditions for a thin shell r = R(s) between the `minus` and `plus` sides.
+//!
+//! Conventions (see the README, "Conventions"): signature (-,+,+,+), G = c = 1, the Lanczos factor 8 pi in every
+//! dimension D. The unit normal n points from minus into plus; eps = n.n = +1 for a timelike shell (s = proper
+//! time tau) and -1 for a spacelike shell (s = proper length l). On each side i the sign of n^r is
+//! nu_i = `Side::normal_sign()`, so that with W_i = sqrt(Rdot^2 + eps B_i)
+//! ```text
+//! n^r_i = nu_i W_i,   K^theta_theta_i = nu_i W_i / R,
+//! K^s_s_i = nu_i (Rddot + eps B_i'/2) / W_i + nu_i W_i Phi_i',   Phi_i' = A_i'/(2 A_i) - B_i'/(2 B_i),
+//! S_ab = -(eps / 8 pi) ([K_ab] - [K] h_ab),   [X] = X_plus - X_minus      (Lanczos equation)
+//! ```
+//! (Israel 1966, Nuovo Cimento B 44, 1; Barrabes & Israel 1991, Phys. Rev. D 43, 1129; Poisson, A Relativist's
+//! Toolkit, 2004, ch. 3). Every path is checked against an independent SymPy derivation from first principles in
+//! `tests/reference/junction_reference.py`.
+//!
+//! The computations are generic over the number type `T` of the parameters (f64, or a dual number when a
+//! derivative with respect to a parameter is wanted); radial derivatives of A and B come from third-order dual
+//! numbers, exact to rounding.
+
+pub mod conditions;
+pub mod formula;
+pub mod lanczos;
+pub mod potential;
+pub mod stability;
+
+use crate::error::{Error, Result};
+use crate::expr::{Expr, Scalar};
+use crate::scenario::{Keep, Scenario, ShellKind, Which};
+use num_dual::Dual3;
+
+pub use conditions::EnergyConditions;
+pub use lanczos::{Stress, StaticValues};
+pub use stability::{LinearStability, StableWhen};
+
+/// A(r), B(r) and their first three radial derivatives at one radius.
+#[derive(Debug, Clone, Copy)]
+pub struct Jet<T> {
+    /// [A, A', A'', A'''].
+    pub a: [T; 4],
+    /// [B, B', B'', B'''].
+    pub b: [T; 4],
+}
+
+/// Relative size of |B| below which a radius counts as numerically at a horizon.
+pub const HORIZON_TOL: f64 = 1e-9;
+
+/// A shell between two sides, bound to parameter values of number type `T`.
+#[derive(Debug, Clone)]
+pub struct Junction<'a, T: Scalar = f64> {
+    /// Spacetime dimension D.
+    pub dimension: u32,
+    /// Timelike or spacelike shell.
+    pub kind: ShellKind,
+    /// eps = n.n (+1 timelike, -1 spacelike).
+    pub eps: f64,
+    /// Sign of n^r on the minus side.
+    pub nu_minus: f64,
+    /// Sign of n^r on the plus side.
+    pub nu_plus: f64,
+    /// Which part the minus side keeps.
+    pub keep_minus: Keep,
+    /// Which part the plus side keeps.
+    pub keep_plus: Keep,
+    minus_a: &'a Expr,
+    minus_b: &'a Expr,
+    plus_a: &'a Expr,
+    plus_b: &'a Expr,
+    /// Equation of state p(sigma), if the scenario gives one.
+    pub eos: Option<&'a Expr>,
+    /// Parameter values, in the scenario's order.
+    pub params: Vec<T>,
+}
+
+impl<'a> Junction<'a, f64> {
+    /// The junction of a scenario at its current parameter values.
+    pub fn new(s: &'a Scenario) -> Junction<'a, f64> {
+        Junction::with_params(s, s.params.values().to_vec())
+    }
+}
+
+impl<'a, T: Scalar> Junction<'a, T> {
+    /// The junction of a scenario with the given parameter values (of any number type).
+    pub fn with_params(s: &'a Scenario, params: Vec<T>) -> Junction<'a, T> {
+        Junction {
+            dimension: s.dimension,
+            kind: s.shell.kind,
+            eps: s.shell.kind.eps(),
+            nu_minus: s.minus.normal_sign(),
+            nu_plus: s.plus.normal_sign(),
+            keep_minus: s.minus.keep,
+            keep_plus: s.plus.keep,
+            minus_a: &s.minus.a,
+            minus_b: &s.minus.b,
+            plus_a: &s.plus.a,
+            plus_b: &s.plus.b,
+            eos: s.shell.eos.as_ref(),
+            params,
+        }
+    }
+
+    /// (D - 2) as a float: the number of angular directions on the shell.
+    pub fn n_ang(&self) -> f64 {
+        f64::from(self.dimension - 2)
+    }
+
+    /// A, B and three derivatives of side `which` at radius `r`.
+    pub fn jet(&self, which: Which, r: T) -> Jet<T> {
+        let (ea, eb) = match which {
+            Which::Minus => (self.minus_a, self.minus_b),
+            Which::Plus => (self.plus_a, self.plus_b),
+        };
+        let x = Dual3::new(r, T::one(), T::zero(), T::zero());
+        let lift = |k: usize| Dual3::new(self.params[k], T::zero(), T::zero(), T::zero());
+        let a: Dual3<T, f64> = ea.eval_with(x, lift);
+        let b: Dual3<T, f64> = if std::ptr::eq(ea, eb) { a } else { eb.eval_with(x, lift) };
+        Jet { a: [a.re, a.v1, a.v2, a.v3], b: [b.re, b.v1, b.v2, b.v3] }
+    }
+
+    /// Evaluate the equation of state P(sigma) at any number type built on `T`.
+    pub fn eos_at<U: Scalar, L: Fn(T) -> U + Copy>(&self, sigma: U, lift: L) -> Option<U> {
+        self.eos.map(|e| e.eval_with(sigma, |k| lift(self.params[k])))
+    }
+
+    /// Check that a static shell can sit at `a`: both sides in the region the shell kind needs (B > 0 for a
+    /// timelike shell, B < 0 for a spacelike one), not numerically at a horizon, and each R-region `keep`
+    /// consistent with B > 0 there.
+    pub fn check_static_radius(&self, a: f64, jm: &Jet<T>, jp: &Jet<T>) -> Result<()> {
+        for (which, jet, keep) in [(Which::Minus, jm, self.keep_minus), (Which::Plus, jp, self.keep_plus)] {
+            let b = jet.b[0].re();
+            let a_val = jet.a[0].re();
+            let scale = 1.0 + a * jet.b[1].re().abs();
+            if !b.is_finite() || !a_val.is_finite() {
+                return Err(Error::numerical(format!(
+                    "radius {a}: A or B of the {which} side is not finite there (A = {a_val}, B = {b})"
+                ))
+                .with_hint("the metric function is singular or undefined at this radius; choose another radius"));
+            }
+            if b.abs() <= HORIZON_TOL * scale {
+                return Err(Error::numerical(format!(
+                    "radius {a} is at (or numerically within {:.0e} of) a horizon of the {which} side: B = {b:e}",
+                    HORIZON_TOL
+                ))
+                .with_hint("the junction formulas divide by sqrt(B) and fail on a horizon (a shell there is a null shell, outside this tool's scope); move the radius off the horizon"));
+            }
+            let r_region = b > 0.0;
+            match (self.kind, r_region) {
+                (ShellKind::Timelike, false) => {
+                    return Err(Error::numerical(format!(
+                        "radius {a}: the {which} side has B = {b:.6e} < 0 here (a T-region), so r = const is spacelike: no static timelike shell can sit here"
+                    ))
+                    .with_hint("choose a radius outside the horizons (see `junctura check`), or make the shell spacelike with [shell] kind = \"spacelike\""));
+                }
+                (ShellKind::Spacelike, true) => {
+                    return Err(Error::numerical(format!(
+                        "radius {a}: the {which} side has B = {b:.6e} > 0 here (an R-region), so r = const is timelike: no static spacelike shell can sit here"
+                    ))
+                    .with_hint("a static spacelike shell sits inside a horizon (T-region); choose a radius where B < 0"));
+                }
+                _ => {}
+            }
+            if !keep.is_r_region() && r_region {
+                return Err(Error::input(format!(
+                    "radius {a}: the {which} side keeps \"{}\" (a T-region) but B > 0 there (an R-region)",
+                    keep.name()
+                ))
+                .with_hint("use keep = \"inner\" or \"outer\" for a side whose shell radius is outside its horizons"));
+            }
+            if keep.is_r_region() && !r_region {
+                return Err(Error::input(format!(
+                    "radius {a}: the {which} side keeps \"{}\" (an R-region) but B < 0 there (a T-region)",
+                    keep.name()
+                ))
+                .with_hint("inside a horizon use keep = \"black-hole\" or \"white-hole\""));
+            }
+            if a_val * b < 0.0 {
+                return Err(Error::numerical(format!(
+                    "radius {a}: on the {which} side A = {a_val:.6e} and B = {b:.6e} have opposite signs; the metric changes signature there"
+                ))
+                .with_hint("check A and B: their zeros should coincide"));
+            }
+        }
+        Ok(())
+    }
+}
+
+/// Area of the unit n-sphere, Omega_n = 2 pi^((n+1)/2) / Gamma((n+1)/2) (common practice), by the recursion
+/// Omega_n = 2 pi Omega_(n-2) / (n - 1) with Omega_0 = 2, Omega_1 = 2 pi.
+pub fn unit_sphere_area(n: u32) -> f64 {
+    let pi = std::f64::consts::PI;
+    let (mut k, mut area) = if n % 2 == 0 { (0, 2.0) } else { (1, 2.0 * pi) };
+    while k < n {
+        k += 2;
+        area *= 2.0 * pi / f64::from(k - 1);
+    }
+    area
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn sphere_areas() {
+        // Omega_2 = 4 pi, Omega_3 = 2 pi^2, Omega_4 = 8 pi^2/3 (common practice).
+        let pi = std::f64::consts::PI;
+        assert!((unit_sphere_area(2) - 4.0 * pi).abs() < 1e-14);
+        assert!((unit_sphere_area(3) - 2.0 * pi * pi).abs() < 1e-13);
+        assert!((unit_sphere_area(4) - 8.0 * pi * pi / 3.0).abs() < 1e-13);
+    }
+}

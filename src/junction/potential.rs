@@ -1,0 +1,113 @@
+//! The shell's equation of motion Rdot^2 + V(R) = 0, the conservation law with its flux term, and the Taylor
+//! expansion of V about a static radius along the motion (for linearised stability).
+//!
+//! With Y = R [K^theta_theta] = X_plus - X_minus, X_i = n^r_i, the identities X_plus^2 - X_minus^2 = eps (B_plus -
+//! B_minus) and Rdot^2 = X_i^2 - eps B_i give (squaring the angular junction condition; Israel 1966; Poisson
+//! 2004 ch. 3 for D = 4, A = B)
+//! ```text
+//! V(R) = eps (B_plus + B_minus)/2 - ((B_plus - B_minus)/(2 Y))^2 - Y^2/4,
+//! timelike:  Y = -kappa,  kappa = 8 pi R sigma / (D - 2)   (kappa = m_s / R in D = 4, m_s = 4 pi R^2 sigma).
+//! ```
+//! The theta-theta component, with K^s_s_i = dX_i/dR + X_i Phi_i' along the motion, gives for a timelike shell
+//! ```text
+//! dY/dR = 8 pi p - (X_plus Phi_plus' - X_minus Phi_minus') - (D - 3) Y / R,
+//! equivalently  sigma' = -(D - 2)(sigma + p)/R + Xi,   Xi = (D - 2)(X_plus Phi_plus' - X_minus Phi_minus')/(8 pi R),
+//! ```
+//! the conservation law with the flux term Xi that vanishes when A_i = B_i (Garcia, Lobo & Visser 2012,
+//! Phys. Rev. D 86, 044026, eq. for sigma' in D = 4). With X_plus = (Y + eps dB/Y)/2, X_minus = (eps dB/Y - Y)/2
+//! this is an ODE for Y(R) once p = P(sigma) is given.
+
+use super::{Junction, StaticValues};
+use crate::expr::Scalar;
+use num_dual::Dual2;
+
+/// The equation of state used along the motion.
+#[derive(Debug, Clone, Copy)]
+pub enum Law<T> {
+    /// p = p0 + beta^2 (sigma - sigma0): the linearised law of Poisson & Visser 1995.
+    Linear {
+        /// beta^2 = dp/dsigma at the static radius.
+        beta2: T,
+    },
+    /// The scenario's own p(sigma).
+    Scenario,
+}
+
+/// V from B on both sides and Y = R [K^theta_theta] (module docs).
+#[inline]
+pub fn potential_from_y<U: Scalar>(eps: f64, b_minus: U, b_plus: U, y: U) -> U {
+    let db = b_plus - b_minus;
+    let t = db / (y * 2.0);
+    (b_plus + b_minus) * (0.5 * eps) - t * t - y * y * 0.25
+}
+
+impl<'a, T: Scalar> Junction<'a, T> {
+    /// kappa = 8 pi R sigma / (D - 2) for a timelike shell (so that Y = -kappa).
+    pub fn kappa(&self, r: T, sigma: T) -> T {
+        r * sigma * (8.0 * std::f64::consts::PI / self.n_ang())
+    }
+
+    /// V(R) for a timelike shell with surface energy density sigma at R.
+    pub fn potential_sigma(&self, r: T, sigma: T) -> T {
+        let bm = self.jet(crate::scenario::Which::Minus, r).b[0];
+        let bp = self.jet(crate::scenario::Which::Plus, r).b[0];
+        potential_from_y(self.eps, bm, bp, -self.kappa(r, sigma))
+    }
+
+    /// The flux term Xi of the conservation law at a static radius (zero when A = B on both sides).
+    pub fn flux_term(&self, sv: &StaticValues<T>) -> T {
+        let f = self.flux_sum(sv);
+        f * (self.n_ang() / (8.0 * std::f64::consts::PI)) / sv.a
+    }
+
+    fn flux_sum(&self, sv: &StaticValues<T>) -> T {
+        let phi = |i: usize| {
+            let j = &sv.jets[i];
+            j.a[1] / (j.a[0] * 2.0) - j.b[1] / (j.b[0] * 2.0)
+        };
+        sv.stress.n_r[1] * phi(1) - sv.stress.n_r[0] * phi(0)
+    }
+
+    /// [V(a), V'(a), V''(a)] at a static radius of a timelike shell, following sigma(R) along the motion with
+    /// the given law. V(a) and V'(a) vanish at a static solution (V'(a) only if the law holds there); V''(a)
+    /// decides linear stability (Poisson & Visser 1995; Garcia, Lobo & Visser 2012).
+    ///
+    /// Method: Taylor-mode automatic differentiation. Y(R) is expanded to second order about a by Picard
+    /// iteration of the ODE of the module docs in second-order dual numbers (each iteration fixes one more
+    /// order, three are done), then V is evaluated on the expansion.
+    pub fn potential_taylor(&self, sv: &StaticValues<T>, law: Law<T>) -> Option<[T; 3]> {
+        let d2 = |j: &[T; 4], k: usize| Dual2::new(j[k], j[k + 1], j[k + 2]);
+        let [jm, jp] = &sv.jets;
+        let bm = d2(&jm.b, 0);
+        let bp = d2(&jp.b, 0);
+        let phi = |j: &super::Jet<T>| d2(&j.a, 1) / (d2(&j.a, 0) * 2.0) - d2(&j.b, 1) / (d2(&j.b, 0) * 2.0);
+        let (phi_m, phi_p) = (phi(jm), phi(jp));
+        let r = Dual2::new(sv.a, T::one(), T::zero());
+        let y0 = sv.stress.n_r[1] - sv.stress.n_r[0];
+        let sigma0 = sv.stress.sigma();
+        let p0 = sv.stress.pressure();
+        let lift = |t: T| Dual2::new(t, T::zero(), T::zero());
+        let n_ang = self.n_ang();
+        let pi8 = 8.0 * std::f64::consts::PI;
+        let eps = self.eps;
+        let db = bp - bm;
+        let rhs = |y: Dual2<T, f64>| -> Option<Dual2<T, f64>> {
+            let sigma = -(y * n_ang) / (r * pi8);
+            let p = match law {
+                Law::Linear { beta2 } => lift(p0) + (sigma - lift(sigma0)) * lift(beta2),
+                Law::Scenario => self.eos_at(sigma, lift)?,
+            };
+            let xp = (y + db * eps / y) * 0.5;
+            let xm = (db * eps / y - y) * 0.5;
+            let flux = xp * phi_p - xm * phi_m;
+            Some(p * pi8 - flux - y * (n_ang - 1.0) / r)
+        };
+        let mut y = lift(y0);
+        for _ in 0..3 {
+            let g = rhs(y)?;
+            y = Dual2::new(y0, g.re, g.v1);
+        }
+        let v = potential_from_y(eps, bm, bp, y);
+        Some([v.re, v.v1, v.v2])
+    }
+}

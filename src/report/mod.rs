@@ -1,0 +1,3 @@
+//! Plain result structs for each analysis, built from the physics modules and consumed by `export`/`plot`.
+
+pub mod derive;

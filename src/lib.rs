@@ -36,5 +36,6 @@ pub mod output;
 pub mod report;
 pub mod roots;
 pub mod scenario;
+pub mod statics;
 
 pub use error::{Error, ErrorKind, Result};

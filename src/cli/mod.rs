@@ -3,6 +3,7 @@
 mod check;
 mod common;
 mod derive;
+mod statics;
 
 use clap::{Parser, Subcommand};
 
@@ -21,6 +22,12 @@ enum Command {
     /// Junction quantities at one shell state: sigma, p (or S^l_l, S^theta_theta), potential, mass,
     /// energy conditions, linear stability; formulas as text or LaTeX.
     Derive(derive::Args),
+    /// Every static radius of the scenario's equation of state in a range, each with its linear stability.
+    Statics(statics::StaticsArgs),
+    /// Solve for a parameter that puts a static shell at a radius, or for static marginally stable shells.
+    Tune(statics::TuneArgs),
+    /// Follow every branch of static radii as one parameter varies (through folds).
+    Sweep(statics::SweepArgs),
 }
 
 /// Run the program; returns the process exit code.
@@ -36,6 +43,9 @@ pub fn run() -> i32 {
     let result = match cli.command {
         Command::Check(a) => check::run(a),
         Command::Derive(a) => derive::run(a),
+        Command::Statics(a) => statics::run_statics(a),
+        Command::Tune(a) => statics::run_tune(a),
+        Command::Sweep(a) => statics::run_sweep(a),
     };
     match result {
         Ok(()) => 0,

@@ -1,0 +1,284 @@
+//! Static shells with an equation of state: every static radius in an interval, each classified by V''(a0).
+//!
+//! A static radius a0 of a timelike shell with p = P(sigma) is a root of f(a) = p0(a) - P(sigma0(a)), where
+//! sigma0, p0 are the static junction values (Poisson & Visser 1995; Garcia, Lobo & Visser 2012). The search runs
+//! over the part of the interval where both sides are R-regions (the only places a static timelike shell can
+//! sit), split at horizons, with the failure modes made explicit (see `roots`).
+
+pub mod sweep;
+pub mod tune;
+
+use crate::error::{Error, Result};
+use crate::expr::Scalar;
+use crate::junction::potential::Law;
+use crate::junction::{Junction, StaticValues};
+use crate::metric::{horizons, SideFns};
+use crate::roots::{find_roots, RootKind, RootOptions};
+use crate::scenario::{Scenario, ShellKind, Which};
+use num_dual::{Dual2, Dual64};
+use serde::Serialize;
+
+/// Tolerances for static-radius work, in one place.
+#[derive(Debug, Clone, Copy)]
+pub struct StaticsOptions {
+    /// Root finding.
+    pub roots: RootOptions,
+    /// Relative |V''| below which a static radius is called marginal.
+    pub marginal_tol: f64,
+    /// Relative distance to a horizon below which a result is flagged as ill-conditioned.
+    pub near_horizon: f64,
+    /// Horizons are cut out of the search interval by this relative margin.
+    pub horizon_margin: f64,
+}
+
+impl Default for StaticsOptions {
+    fn default() -> Self {
+        StaticsOptions {
+            roots: RootOptions { samples: 3000, ..Default::default() },
+            marginal_tol: 1e-8,
+            near_horizon: 1e-6,
+            horizon_margin: 1e-10,
+        }
+    }
+}
+
+/// Linear verdict from V''(a0).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Stability {
+    /// V'' > 0.
+    Stable,
+    /// V'' < 0.
+    Unstable,
+    /// |V''| within tolerance of zero: the linear test does not decide.
+    Marginal,
+}
+
+impl Stability {
+    /// Classify V'' relative to a scale.
+    pub fn classify(v2: f64, scale: f64, tol: f64) -> Stability {
+        if v2.abs() <= tol * scale.max(f64::MIN_POSITIVE) {
+            Stability::Marginal
+        } else if v2 > 0.0 {
+            Stability::Stable
+        } else {
+            Stability::Unstable
+        }
+    }
+
+    /// The JSON word.
+    pub fn name(self) -> &'static str {
+        match self {
+            Stability::Stable => "stable",
+            Stability::Unstable => "unstable",
+            Stability::Marginal => "marginal",
+        }
+    }
+}
+
+/// One static radius.
+#[derive(Debug, Clone, Serialize)]
+pub struct StaticRadius {
+    /// a0.
+    pub radius: f64,
+    /// sigma0.
+    pub sigma: f64,
+    /// p0 (= P(sigma0) to the residual).
+    pub pressure: f64,
+    /// V''(a0) with the scenario's law.
+    pub potential_second_derivative: f64,
+    /// Verdict.
+    pub stability: Stability,
+    /// beta^2 = P'(sigma0).
+    pub beta2: f64,
+    /// The critical beta^2 at a0 (null if V'' does not depend on beta^2).
+    pub beta2_critical: Option<f64>,
+    /// |p0 - P(sigma0)| at the returned radius.
+    pub residual: f64,
+    /// V(a0) and V'(a0): both vanish at a static solution (a check).
+    pub potential: [f64; 2],
+    /// Shell mass.
+    pub shell_mass: f64,
+    /// True for a double (tangent) root: ill-conditioned, may split or vanish under small changes.
+    pub double_root: bool,
+    /// True if within a relative 1e-6 of a horizon (ill-conditioned).
+    pub near_horizon: bool,
+    /// Energy conditions at the static values.
+    pub energy_conditions: crate::junction::EnergyConditions,
+}
+
+/// A search interval (part of the requested range where both sides are R-regions).
+#[derive(Debug, Clone, Copy, Serialize)]
+pub struct Interval {
+    /// Lower end.
+    pub from: f64,
+    /// Upper end.
+    pub to: f64,
+}
+
+/// The result of a static-radius search.
+#[derive(Debug, Clone, Serialize)]
+pub struct StaticsReport {
+    /// Scenario name.
+    pub scenario: String,
+    /// Provenance line.
+    pub provenance: String,
+    /// The law p(sigma) as typed.
+    pub equation_of_state: String,
+    /// Requested range.
+    pub from: f64,
+    /// Requested range.
+    pub to: f64,
+    /// Intervals searched (the requested range split at horizons, keeping R-regions on both sides).
+    pub intervals: Vec<Interval>,
+    /// Static radii, sorted.
+    pub static_radii: Vec<StaticRadius>,
+    /// Sign changes rejected as poles (e.g. where sigma0 = 0 under a Chaplygin law).
+    pub poles_rejected: Vec<f64>,
+    /// Notes for the reader (horizon splits, ill-conditioned roots).
+    pub notes: Vec<String>,
+}
+
+/// f(a) = p0(a) - P(sigma0(a)) and the static values, at any number type; `None` where a static timelike shell
+/// cannot sit (a side not in an R-region) or the law is undefined.
+pub fn residual<T: Scalar>(j: &Junction<T>, a: T) -> Option<(T, StaticValues<T>)> {
+    let jm = j.jet(Which::Minus, a);
+    let jp = j.jet(Which::Plus, a);
+    if jm.b[0].re() <= 0.0 || jp.b[0].re() <= 0.0 {
+        return None;
+    }
+    let stress = j.stress_with_jets(&jm, &jp, a, T::zero(), T::zero()).ok()?;
+    let p_law = j.eos_at(stress.sigma(), |t| t)?;
+    let f = stress.pressure() - p_law;
+    if !f.re().is_finite() {
+        return None;
+    }
+    Some((f, StaticValues { a, stress, jets: [jm, jp] }))
+}
+
+/// Parameters lifted into a dual type (constants).
+pub fn lift_params<T: Scalar>(params: &[f64]) -> Vec<T> {
+    params.iter().map(|&p| T::from(p)).collect()
+}
+
+/// The parts of [lo, hi] where both sides are R-regions (B > 0), with horizons cut out by a small margin.
+pub fn r_region_intervals(s: &Scenario, params: &[f64], lo: f64, hi: f64, opts: &StaticsOptions) -> (Vec<Interval>, Vec<String>) {
+    let mut cuts = vec![];
+    let mut notes = vec![];
+    for w in [Which::Minus, Which::Plus] {
+        let fns = SideFns::new(s.side(w), params);
+        let (hs, poles) = horizons(&fns, lo, hi, &opts.roots);
+        for h in hs {
+            notes.push(format!("the range is split at the horizon r = {:.12} of the {w} side", h.radius));
+            cuts.push(h.radius);
+        }
+        for p in poles {
+            notes.push(format!("the range is split where B of the {w} side passes through a pole near r = {p:.6}"));
+            cuts.push(p);
+        }
+    }
+    cuts.sort_by(|a, b| a.total_cmp(b));
+    let mut edges = vec![lo];
+    edges.extend(cuts.into_iter().filter(|c| *c > lo && *c < hi));
+    edges.push(hi);
+    let mut out = Vec::new();
+    for w in edges.windows(2) {
+        let (a, b) = (w[0] * (1.0 + opts.horizon_margin), w[1] * (1.0 - opts.horizon_margin));
+        if b <= a {
+            continue;
+        }
+        let mid = 0.5 * (a + b);
+        let ok = [Which::Minus, Which::Plus].iter().all(|&wh| SideFns::new(s.side(wh), params).b(mid) > 0.0);
+        if ok {
+            out.push(Interval { from: a, to: b });
+        } else {
+            notes.push(format!("skipped {:.6} < r < {:.6}: a side is a T-region there (no static timelike shell)", w[0], w[1]));
+        }
+    }
+    (out, notes)
+}
+
+/// Classify one static radius with the scenario's law.
+pub fn classify(s: &Scenario, j: &Junction<f64>, a: f64, double_root: bool, opts: &StaticsOptions) -> Option<StaticRadius> {
+    let (f, sv) = residual(j, a)?;
+    let ls = j.linear_stability(&sv).ok()?;
+    let sigma = sv.stress.sigma();
+    let beta = j.eos_at(Dual64::new(sigma, 1.0), Dual64::from)?.eps;
+    let v = j.potential_taylor(&sv, Law::Scenario)?;
+    let scale = ls.v2_at_beta2_zero.abs() + (ls.v2_slope * beta).abs();
+    let near = [0usize, 1].iter().any(|&i| sv.jets[i].b[0].abs() <= opts.near_horizon * (1.0 + a * sv.jets[i].b[1].abs()));
+    Some(StaticRadius {
+        radius: a,
+        sigma,
+        pressure: sv.stress.pressure(),
+        potential_second_derivative: v[2],
+        stability: Stability::classify(v[2], scale, opts.marginal_tol),
+        beta2: beta,
+        beta2_critical: ls.beta2_critical,
+        residual: f.abs(),
+        potential: [v[0], v[1]],
+        shell_mass: crate::junction::conditions::shell_mass(a, sigma, s.dimension),
+        double_root,
+        near_horizon: near,
+        energy_conditions: crate::junction::EnergyConditions::evaluate(sigma, sv.stress.pressure(), s.dimension),
+    })
+}
+
+/// Every static radius of the scenario's equation of state in [lo, hi], at the scenario's parameter values.
+pub fn find_static_radii(s: &Scenario, lo: f64, hi: f64, opts: &StaticsOptions) -> Result<StaticsReport> {
+    let eos = s.shell.eos.as_ref().ok_or_else(|| {
+        Error::input(format!("{}: the scenario has no equation of state", s.origin.label()))
+            .with_hint("add [shell] pressure = \"...\" (e.g. \"w*sigma\"), or use `junctura derive` for beta^2 stability at a chosen radius")
+    })?;
+    if s.shell.kind != ShellKind::Timelike {
+        return Err(Error::input("static radii with an equation of state need a timelike shell"));
+    }
+    let params = s.params.values();
+    let (intervals, mut notes) = r_region_intervals(s, params, lo, hi, opts);
+    if intervals.is_empty() {
+        notes.push("no part of the range has both sides in an R-region: no static timelike shell is possible".into());
+    }
+    let j1: Junction<Dual64> = Junction::with_params(s, lift_params(params));
+    let j2: Junction<Dual2<f64, f64>> = Junction::with_params(s, lift_params(params));
+    let j0 = Junction::new(s);
+    let f = |a: f64| residual(&j1, Dual64::new(a, 1.0)).map(|(v, _)| (v.re, v.eps));
+    let fp = |a: f64| residual(&j2, Dual2::new(a, 1.0, 0.0)).map(|(v, _)| (v.v1, v.v2));
+    let mut radii = Vec::new();
+    let mut poles = Vec::new();
+    for iv in &intervals {
+        let scan = find_roots(&f, Some(&fp), iv.from, iv.to, &opts.roots);
+        poles.extend(scan.poles.iter().map(|p| p.x));
+        for r in scan.roots {
+            if let Some(sr) = classify(s, &j0, r.x, r.kind == RootKind::Double, opts) {
+                radii.push(sr);
+            }
+        }
+    }
+    for sr in &radii {
+        if sr.double_root {
+            notes.push(format!("a0 = {:.10} is a double root (p0 - P(sigma0) touches zero without crossing): ill-conditioned, a small change of parameters splits or removes it", sr.radius));
+        }
+        if sr.near_horizon {
+            notes.push(format!("a0 = {:.10} is within a relative 1e-6 of a horizon: ill-conditioned", sr.radius));
+        }
+    }
+    for p in &poles {
+        notes.push(format!("p0 - P(sigma0) changes sign through a pole near a = {p:.8}: not a static radius"));
+    }
+    for w in radii.windows(2) {
+        if (w[1].radius - w[0].radius).abs() < 1e-6 * w[0].radius {
+            notes.push(format!("static radii {:.10} and {:.10} are very close: they are near a fold (ill-conditioned)", w[0].radius, w[1].radius));
+        }
+    }
+    Ok(StaticsReport {
+        scenario: s.name.clone(),
+        provenance: s.provenance(),
+        equation_of_state: eos.source().to_string(),
+        from: lo,
+        to: hi,
+        intervals,
+        static_radii: radii,
+        poles_rejected: poles,
+        notes,
+    })
+}

@@ -1,0 +1,295 @@
+//! Branches of static radii as one parameter varies, followed by pseudo-arclength continuation so that a branch
+//! keeps its identity through folds (where two static radii merge and the curve turns back in the parameter).
+//!
+//! Method (Keller 1977, "Numerical solution of bifurcation and nonlinear eigenvalue problems"; common practice in
+//! numerical continuation): the solution set of f(a, lambda) = p0 - P(sigma0) = 0 is a curve in the plane
+//! (u, v) = (ln a scaled to the radius box, lambda scaled to the parameter range). From seeds (every static radius
+//! found by a robust scan at each requested lambda) the curve is traced in both directions with a tangent
+//! predictor and a Newton corrector on [f = 0, t.(x - x_pred) = 0]; exact partials come from dual numbers. Each
+//! branch is reported where it crosses the requested lambda values, with its folds (turning points in lambda).
+
+use super::{find_static_radii, Stability, StaticsOptions};
+use crate::error::{Error, Result};
+use crate::junction::potential::Law;
+use crate::junction::Junction;
+use crate::scenario::Scenario;
+use num_dual::Dual64;
+use serde::Serialize;
+
+/// One point of a branch at a requested parameter value.
+#[derive(Debug, Clone, Serialize)]
+pub struct BranchPoint {
+    /// Parameter value.
+    pub value: f64,
+    /// Static radius.
+    pub radius: f64,
+    /// V''(a0) with the scenario's law.
+    pub potential_second_derivative: f64,
+    /// Verdict.
+    pub stability: Stability,
+}
+
+/// A fold (turning point) of a branch: two static radii merge there.
+#[derive(Debug, Clone, Serialize)]
+pub struct Fold {
+    /// Parameter value at the fold.
+    pub value: f64,
+    /// Radius at the fold.
+    pub radius: f64,
+}
+
+/// One connected branch.
+#[derive(Debug, Clone, Serialize)]
+pub struct Branch {
+    /// 1-based identifier.
+    pub id: usize,
+    /// Crossings of the requested parameter values, in order along the branch.
+    pub points: Vec<BranchPoint>,
+    /// Folds along the branch.
+    pub folds: Vec<Fold>,
+}
+
+/// Result of a sweep.
+#[derive(Debug, Clone, Serialize)]
+pub struct SweepReport {
+    /// Scenario name.
+    pub scenario: String,
+    /// Provenance.
+    pub provenance: String,
+    /// Varied parameter.
+    pub parameter: String,
+    /// Requested values.
+    pub values: Vec<f64>,
+    /// Radius box.
+    pub radius_range: [f64; 2],
+    /// Branches.
+    pub branches: Vec<Branch>,
+    /// Notes.
+    pub notes: Vec<String>,
+}
+
+struct Ctx<'a> {
+    s: &'a Scenario,
+    k: usize,
+    a_lo: f64,
+    a_hi: f64,
+    l_lo: f64,
+    l_hi: f64,
+}
+
+impl Ctx<'_> {
+    fn to_uv(&self, a: f64, l: f64) -> [f64; 2] {
+        [(a / self.a_lo).ln() / (self.a_hi / self.a_lo).ln(), (l - self.l_lo) / (self.l_hi - self.l_lo)]
+    }
+    fn from_uv(&self, x: [f64; 2]) -> (f64, f64) {
+        (self.a_lo * ((self.a_hi / self.a_lo).ln() * x[0]).exp(), self.l_lo + x[1] * (self.l_hi - self.l_lo))
+    }
+    /// f and its gradient in (u, v).
+    fn f(&self, x: [f64; 2]) -> Option<(f64, [f64; 2])> {
+        let (a, l) = self.from_uv(x);
+        let mut g = [0.0; 2];
+        let mut val = 0.0;
+        for (slot, (da, dl)) in [(0usize, (1.0, 0.0)), (1usize, (0.0, 1.0))] {
+            let mut p: Vec<Dual64> = self.s.params.values().iter().map(|&v| Dual64::from(v)).collect();
+            p[self.k] = Dual64::new(l, dl);
+            let j = Junction::with_params(self.s, p);
+            let (f, _) = super::residual(&j, Dual64::new(a, da))?;
+            val = f.re;
+            g[slot] = f.eps;
+        }
+        // chain rule to (u, v)
+        let gu = g[0] * a * (self.a_hi / self.a_lo).ln();
+        let gv = g[1] * (self.l_hi - self.l_lo);
+        (val.is_finite() && gu.is_finite() && gv.is_finite()).then_some((val, [gu, gv]))
+    }
+    fn inside(&self, x: [f64; 2]) -> bool {
+        (-1e-9..=1.0 + 1e-9).contains(&x[0]) && (-1e-9..=1.0 + 1e-9).contains(&x[1])
+    }
+    /// Newton at fixed v (parameter) for u.
+    fn polish_at_v(&self, mut x: [f64; 2]) -> Option<[f64; 2]> {
+        for _ in 0..50 {
+            let (f, g) = self.f(x)?;
+            if g[0] == 0.0 {
+                return None;
+            }
+            let du = -f / g[0];
+            x[0] += du;
+            if du.abs() < 1e-15 {
+                break;
+            }
+        }
+        let (f, g) = self.f(x)?;
+        (f.abs() <= 1e-10 * (g[0].abs() + g[1].abs()).max(1e-300)).then_some(x)
+    }
+}
+
+/// Trace the curve from `x0` in direction `dir` (+1/-1 along the tangent); returns the polyline.
+fn trace(c: &Ctx, x0: [f64; 2], dir: f64, h0: f64, max_steps: usize) -> Vec<[f64; 2]> {
+    let mut pts = vec![x0];
+    let mut x = x0;
+    let mut h = h0;
+    let Some((_, g)) = c.f(x) else { return pts };
+    let norm = (g[0] * g[0] + g[1] * g[1]).sqrt();
+    let mut t = [-g[1] / norm * dir, g[0] / norm * dir];
+    for step in 0..max_steps {
+        let pred = [x[0] + h * t[0], x[1] + h * t[1]];
+        // Newton corrector on F = [f, t.(y - pred)].
+        let mut y = pred;
+        let mut ok = false;
+        for _ in 0..20 {
+            let Some((f, g)) = c.f(y) else { break };
+            let r2 = t[0] * (y[0] - pred[0]) + t[1] * (y[1] - pred[1]);
+            let det = g[0] * t[1] - g[1] * t[0];
+            if det == 0.0 {
+                break;
+            }
+            let du = (-f * t[1] + r2 * g[1]) / det;
+            let dv = (-r2 * g[0] + f * t[0]) / det;
+            y = [y[0] + du, y[1] + dv];
+            if du.abs() + dv.abs() < 1e-13 {
+                ok = true;
+                break;
+            }
+        }
+        let dist = ((y[0] - x[0]).powi(2) + (y[1] - x[1]).powi(2)).sqrt();
+        if !ok || dist > 3.0 * h || dist < 0.1 * h {
+            h *= 0.5;
+            if h < 1e-9 {
+                break;
+            }
+            continue;
+        }
+        let Some((_, g)) = c.f(y) else { break };
+        let norm = (g[0] * g[0] + g[1] * g[1]).sqrt();
+        let mut tn = [-g[1] / norm, g[0] / norm];
+        if tn[0] * t[0] + tn[1] * t[1] < 0.0 {
+            tn = [-tn[0], -tn[1]];
+        }
+        t = tn;
+        x = y;
+        pts.push(x);
+        if !c.inside(x) {
+            break;
+        }
+        // A closed curve: back at the start.
+        if step > 10 && ((x[0] - x0[0]).powi(2) + (x[1] - x0[1]).powi(2)).sqrt() < 0.5 * h {
+            break;
+        }
+        h = (h * 1.3).min(h0);
+    }
+    pts
+}
+
+/// Follow every branch of static radii as parameter `name` runs over `values` (sorted, at least 2),
+/// with radii in [a_lo, a_hi].
+pub fn sweep(s: &Scenario, name: &str, values: &[f64], a_lo: f64, a_hi: f64, opts: &StaticsOptions) -> Result<SweepReport> {
+    let k = s.params.index(name).map_err(|e| e.context("--vary"))?;
+    if values.len() < 2 {
+        return Err(Error::input("--vary needs at least 2 values (N >= 2)"));
+    }
+    let (l_lo, l_hi) = (values[0], values[values.len() - 1]);
+    let c = Ctx { s, k, a_lo, a_hi, l_lo, l_hi };
+    let mut notes = Vec::new();
+    // Seeds: every static radius at every requested value.
+    let mut seeds: Vec<(usize, [f64; 2])> = Vec::new();
+    for (i, &l) in values.iter().enumerate() {
+        let mut sc = s.clone();
+        sc.params.set(name, l)?;
+        let rep = find_static_radii(&sc, a_lo, a_hi, opts)?;
+        for r in rep.static_radii {
+            seeds.push((i, c.to_uv(r.radius, l)));
+        }
+    }
+    let h0 = (0.5 / values.len() as f64).min(0.02);
+    let max_steps = 40 * values.len() + 4000;
+    let mut covered = vec![false; seeds.len()];
+    let mut branches = Vec::new();
+    for si in 0..seeds.len() {
+        if covered[si] {
+            continue;
+        }
+        let x0 = seeds[si].1;
+        let mut back = trace(&c, x0, -1.0, h0, max_steps);
+        let fwd = trace(&c, x0, 1.0, h0, max_steps);
+        back.reverse();
+        back.pop();
+        back.extend(fwd);
+        let poly = back;
+        // Crossings of the requested parameter values, in order along the curve.
+        let mut points = Vec::new();
+        for w in poly.windows(2) {
+            for (vi, &l) in values.iter().enumerate() {
+                let v = (l - l_lo) / (l_hi - l_lo);
+                let (v0, v1) = (w[0][1], w[1][1]);
+                if (v0 - v) * (v1 - v) > 0.0 || v0 == v1 {
+                    continue;
+                }
+                let tt = if v1 != v0 { (v - v0) / (v1 - v0) } else { 0.0 };
+                let guess = [w[0][0] + tt * (w[1][0] - w[0][0]), v];
+                if let Some(x) = c.polish_at_v(guess) {
+                    let (a, _) = c.from_uv(x);
+                    if points.iter().any(|p: &(usize, f64)| p.0 == vi && (p.1 - a).abs() < 1e-9 * a) {
+                        continue;
+                    }
+                    points.push((vi, a));
+                }
+            }
+        }
+        // Mark seeds on this branch as covered.
+        for (sj, (vi, x)) in seeds.iter().enumerate() {
+            let (a, _) = c.from_uv(*x);
+            if points.iter().any(|p| p.0 == *vi && (p.1 - a).abs() <= 1e-7 * a) {
+                covered[sj] = true;
+            }
+        }
+        covered[si] = true;
+        // Folds: sign changes of dv along the polyline, located by a parabola through three points.
+        let mut folds = Vec::new();
+        for w in poly.windows(3) {
+            let (d0, d1) = (w[1][1] - w[0][1], w[2][1] - w[1][1]);
+            if d0 * d1 < 0.0 {
+                let (a, l) = c.from_uv(w[1]);
+                folds.push(Fold { value: l, radius: a });
+            }
+        }
+        let points: Vec<BranchPoint> = points
+            .into_iter()
+            .filter_map(|(vi, a)| {
+                let mut sc = s.clone();
+                sc.params.set(name, values[vi]).ok()?;
+                let j = Junction::new(&sc);
+                let (_, sv) = super::residual(&j, a)?;
+                let ls = j.linear_stability(&sv).ok()?;
+                let v2 = j.potential_taylor(&sv, Law::Scenario)?[2];
+                let scale = ls.v2_at_beta2_zero.abs() + ls.v2_slope.abs();
+                Some(BranchPoint {
+                    value: values[vi],
+                    radius: a,
+                    potential_second_derivative: v2,
+                    stability: Stability::classify(v2, scale, opts.marginal_tol),
+                })
+            })
+            .collect();
+        if points.is_empty() {
+            continue;
+        }
+        for f in &folds {
+            notes.push(format!(
+                "branch {}: fold near {name} = {:.8}, a = {:.8}: two static radii merge there (stability changes across it)",
+                branches.len() + 1,
+                f.value,
+                f.radius
+            ));
+        }
+        branches.push(Branch { id: branches.len() + 1, points, folds });
+    }
+    Ok(SweepReport {
+        scenario: s.name.clone(),
+        provenance: s.provenance(),
+        parameter: name.to_string(),
+        values: values.to_vec(),
+        radius_range: [a_lo, a_hi],
+        branches,
+        notes,
+    })
+}

@@ -123,6 +123,59 @@ impl Ctx<'_> {
     }
 }
 
+impl Ctx<'_> {
+    /// Newton at fixed u (radius) for v (parameter).
+    fn v_at_u(&self, u: f64, v_guess: f64) -> Option<f64> {
+        let mut x = [u, v_guess];
+        for _ in 0..50 {
+            let (f, g) = self.f(x)?;
+            if g[1] == 0.0 {
+                return None;
+            }
+            let dv = -f / g[1];
+            x[1] += dv;
+            if dv.abs() < 1e-15 {
+                return Some(x[1]);
+            }
+        }
+        None
+    }
+}
+
+/// Locate a fold (an extremum of the parameter along the branch) between the polyline points x0 and x2 around the
+/// turning vertex x1, by golden-section search on lambda(a) at fixed radius (f_lambda != 0 at a regular fold).
+fn refine_fold(c: &Ctx, x0: [f64; 2], x1: [f64; 2], x2: [f64; 2]) -> Option<(f64, f64)> {
+    let is_max = x1[1] > x0[1];
+    let sign = if is_max { 1.0 } else { -1.0 };
+    let (mut lo, mut hi) = (x0[0].min(x2[0]), x0[0].max(x2[0]));
+    let obj = |u: f64| c.v_at_u(u, x1[1]).map(|v| sign * v);
+    let gr = 0.5 * (5f64.sqrt() - 1.0);
+    let mut a = hi - gr * (hi - lo);
+    let mut b = lo + gr * (hi - lo);
+    let (mut fa, mut fb) = (obj(a)?, obj(b)?);
+    for _ in 0..80 {
+        if fa > fb {
+            hi = b;
+            b = a;
+            fb = fa;
+            a = hi - gr * (hi - lo);
+            fa = obj(a)?;
+        } else {
+            lo = a;
+            a = b;
+            fa = fb;
+            b = lo + gr * (hi - lo);
+            fb = obj(b)?;
+        }
+        if (hi - lo).abs() < 1e-13 {
+            break;
+        }
+    }
+    let u = 0.5 * (lo + hi);
+    let v = c.v_at_u(u, x1[1])?;
+    Some(c.from_uv([u, v]))
+}
+
 /// Trace the curve from `x0` in direction `dir` (+1/-1 along the tangent); returns the polyline.
 fn trace(c: &Ctx, x0: [f64; 2], dir: f64, h0: f64, max_steps: usize) -> Vec<[f64; 2]> {
     let mut pts = vec![x0];
@@ -248,7 +301,7 @@ pub fn sweep(s: &Scenario, name: &str, values: &[f64], a_lo: f64, a_hi: f64, opt
         for w in poly.windows(3) {
             let (d0, d1) = (w[1][1] - w[0][1], w[2][1] - w[1][1]);
             if d0 * d1 < 0.0 {
-                let (a, l) = c.from_uv(w[1]);
+                let (a, l) = refine_fold(&c, w[0], w[1], w[2]).unwrap_or_else(|| c.from_uv(w[1]));
                 folds.push(Fold { value: l, radius: a });
             }
         }

@@ -221,6 +221,8 @@ pub fn tune_marginal(s: &Scenario, name: &str, lo: f64, hi: f64, range: Option<(
         .filter_map(|&(a, l)| solution(s, k, a, l, opts))
         .map(|mut sol| {
             sol.stability = Stability::Marginal;
+            // At a static, marginally stable point the static branch folds: f_a = 0 and da0/dlambda diverges.
+            sol.d_radius_d_parameter = None;
             sol
         })
         .collect();

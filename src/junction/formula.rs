@@ -21,6 +21,38 @@ fn f(name: &str, text: String, latex: String) -> Formula {
     Formula { name: name.into(), text, latex }
 }
 
+
+fn gcd(a: u32, b: u32) -> u32 {
+    if b == 0 { a } else { gcd(b, a % b) }
+}
+
+/// n/(8 pi X) reduced, as (text, latex); `x` is the symbol after pi (e.g. "R", "a" or "").
+fn over_8pi(n: u32, x: &str) -> (String, String) {
+    let g = gcd(n, 8);
+    let (num, den) = (n / g, 8 / g);
+    let den_t = if den == 1 { format!("pi {x}") } else { format!("{den} pi {x}") };
+    let den_t = den_t.trim_end().to_string();
+    let den_l = if den == 1 { format!("\\pi {x}") } else { format!("{den}\\pi {x}") };
+    (format!("({num}/({den_t}))"), format!("\\frac{{{num}}}{{{}}}", den_l.trim_end()))
+}
+
+/// kappa = 8 pi R sigma/(D-2), reduced, as (text, latex).
+fn kappa_def(n: u32) -> (String, String) {
+    let g = gcd(n, 8);
+    let (num, den) = (8 / g, n / g);
+    let c = if num == 1 { String::new() } else { num.to_string() };
+    if den == 1 {
+        (format!("{c} pi R sigma").trim().to_string(), format!("{c}\\pi R\\sigma"))
+    } else {
+        (format!("{c} pi R sigma/{den}").trim().to_string(), format!("\\frac{{{c}\\pi R\\sigma}}{{{den}}}"))
+    }
+}
+
+/// A coefficient before a term: empty for 1.
+fn times(k: u32) -> String {
+    if k == 1 { String::new() } else { format!("{k} ") }
+}
+
 /// `+ X_plus - X_minus` with the orientation signs folded in, for text and LaTeX.
 /// `item(side)` gives the per-side term (text, latex) for side "+" or "-".
 fn signed_pair(nu_plus: f64, nu_minus: f64, item: &dyn Fn(&str) -> (String, String)) -> (String, String) {
@@ -85,12 +117,12 @@ impl<'a, T: Scalar> Junction<'a, T> {
             ShellKind::Timelike => {
                 out.push(f(
                     "sigma",
-                    format!("sigma = -({n}/(8 pi R)) ({ytext})"),
-                    format!("\\sigma=-\\frac{{{n}}}{{8\\pi R}}\\left({ylatex}\\right)"),
+                    format!("sigma = -{} ({ytext})", over_8pi(n, "R").0),
+                    format!("\\sigma=-{}\\left({ylatex}\\right)", over_8pi(n, "R").1),
                 ));
                 out.push(f(
                     "pressure",
-                    format!("p = (1/(8 pi)) ( [K^tau_tau] + {} ({ytext})/R )", n - 1),
+                    format!("p = (1/(8 pi)) ( [K^tau_tau] + {}({ytext})/R )", times(n - 1)),
                     format!(
                         "p=\\frac{{1}}{{8\\pi}}\\left(\\left[K^{{\\tau}}{{}}_{{\\tau}}\\right]+\\frac{{{}}}{{R}}\\left({ylatex}\\right)\\right)",
                         n - 1
@@ -99,8 +131,8 @@ impl<'a, T: Scalar> Junction<'a, T> {
                 let (st, sl) = signed_pair(np, nm, &|sd| (format!("sqrt(B_{sd}(a))"), format!("\\sqrt{{B_{{{sd}}}(a)}}")));
                 out.push(f(
                     "sigma0",
-                    format!("sigma0 = -({n}/(8 pi a)) ({st})"),
-                    format!("\\sigma_0=-\\frac{{{n}}}{{8\\pi a}}\\left({sl}\\right)"),
+                    format!("sigma0 = -{} ({st})", over_8pi(n, "a").0),
+                    format!("\\sigma_0=-{}\\left({sl}\\right)", over_8pi(n, "a").1),
                 ));
                 let (pt, pl) = signed_pair(np, nm, &|sd| {
                     (
@@ -111,8 +143,8 @@ impl<'a, T: Scalar> Junction<'a, T> {
                 out.push(f("pressure0", format!("p0 = (1/(8 pi)) ({pt})"), format!("p_0=\\frac{{1}}{{8\\pi}}\\left({pl}\\right)")));
                 out.push(f(
                     "potential",
-                    format!("Rdot^2 + V(R) = 0,  V(R) = (B_+ + B_-)/2 - ((B_+ - B_-)/(2 kappa))^2 - kappa^2/4,  kappa = 8 pi R sigma/{n}"),
-                    format!("\\dot{{R}}^{{2}}+V(R)=0,\\quad V(R)=\\frac{{B_{{+}}+B_{{-}}}}{{2}}-\\left(\\frac{{B_{{+}}-B_{{-}}}}{{2\\kappa}}\\right)^{{2}}-\\frac{{\\kappa^{{2}}}}{{4}},\\quad \\kappa=\\frac{{8\\pi R\\sigma}}{{{n}}}"),
+                    format!("Rdot^2 + V(R) = 0,  V(R) = (B_+ + B_-)/2 - ((B_+ - B_-)/(2 kappa))^2 - kappa^2/4,  kappa = {}", kappa_def(n).0),
+                    format!("\\dot{{R}}^{{2}}+V(R)=0,\\quad V(R)=\\frac{{B_{{+}}+B_{{-}}}}{{2}}-\\left(\\frac{{B_{{+}}-B_{{-}}}}{{2\\kappa}}\\right)^{{2}}-\\frac{{\\kappa^{{2}}}}{{4}},\\quad \\kappa={}", kappa_def(n).1),
                 ));
                 let omega = super::unit_sphere_area(n);
                 let om_l = match n {
@@ -142,12 +174,12 @@ impl<'a, T: Scalar> Junction<'a, T> {
             ShellKind::Spacelike => {
                 out.push(f(
                     "S_ll",
-                    format!("S^l_l = -({n}/(8 pi)) [K^theta_theta]  (not an energy density)"),
+                    format!("S^l_l = -{} [K^theta_theta]  (not an energy density)", over_8pi(n, "").0),
                     format!("S^{{l}}{{}}_{{l}}=-\\frac{{{n}}}{{8\\pi}}\\left[K^{{\\theta}}{{}}_{{\\theta}}\\right]"),
                 ));
                 out.push(f(
                     "S_thth",
-                    format!("S^theta_theta = -(1/(8 pi)) ([K^l_l] + {} [K^theta_theta])  (not a pressure)", n - 1),
+                    format!("S^theta_theta = -(1/(8 pi)) ([K^l_l] + {}[K^theta_theta])  (not a pressure)", times(n - 1)),
                     format!(
                         "S^{{\\theta}}{{}}_{{\\theta}}=-\\frac{{1}}{{8\\pi}}\\left(\\left[K^{{l}}{{}}_{{l}}\\right]+{}\\left[K^{{\\theta}}{{}}_{{\\theta}}\\right]\\right)",
                         n - 1

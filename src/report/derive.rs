@@ -105,6 +105,9 @@ pub struct DeriveReport {
     /// [K^s_s] (named K_tautau_jump for timelike shells in text output).
     #[serde(rename = "K_ss_jump")]
     pub k_ss_jump: f64,
+    /// Spacelike shells: [K^l_l] under its own name.
+    #[serde(rename = "K_ll_jump", skip_serializing_if = "Option::is_none")]
+    pub k_ll_jump: Option<f64>,
     /// [K^theta_theta].
     #[serde(rename = "K_thth_jump")]
     pub k_thth_jump: f64,
@@ -203,6 +206,7 @@ pub fn derive(s: &Scenario, state: State) -> Result<DeriveReport> {
         minus: side_values(0, &s.minus),
         plus: side_values(1, &s.plus),
         k_ss_jump: stress.k_ss_jump(),
+        k_ll_jump: (s.shell.kind == ShellKind::Spacelike).then(|| stress.k_ss_jump()),
         k_thth_jump: stress.k_thth_jump(),
         sigma: None,
         pressure: None,

@@ -35,6 +35,7 @@ pub mod metric;
 pub mod output;
 pub mod report;
 pub mod roots;
+pub mod scan;
 pub mod scenario;
 pub mod statics;
 

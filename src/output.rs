@@ -10,12 +10,14 @@ pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<()> {
     let dir = path.parent().filter(|p| !p.as_os_str().is_empty()).unwrap_or_else(|| Path::new("."));
     let name = path.file_name().map(|n| n.to_string_lossy().to_string()).unwrap_or_else(|| "out".into());
     let tmp = dir.join(format!(".{name}.tmp-{}", std::process::id()));
+    register_temp(&tmp);
     let result = (|| -> std::io::Result<()> {
         let mut f = std::fs::File::create(&tmp)?;
         f.write_all(bytes)?;
         f.sync_all()?;
         std::fs::rename(&tmp, path)
     })();
+    unregister_temp(&tmp);
     result.map_err(|e| {
         let _ = std::fs::remove_file(&tmp);
         Error::io(path, &e).with_hint("check that the output folder exists and is writable")
@@ -70,5 +72,80 @@ mod tests {
         let e = write_atomic(Path::new("/nonexistent-folder/x.csv"), b"x").unwrap_err();
         assert_eq!(e.kind, crate::error::ErrorKind::Io);
         assert!(e.message.contains("/nonexistent-folder/x.csv"));
+    }
+}
+
+/// A file being written under a temporary name in its final folder; `finish` renames it into place. Dropped
+/// unfinished (an error, or a panic unwinding), the temporary file is removed, so the final name never holds
+/// half a file.
+pub struct AtomicFile {
+    path: std::path::PathBuf,
+    tmp: std::path::PathBuf,
+    file: Option<std::io::BufWriter<std::fs::File>>,
+}
+
+impl AtomicFile {
+    /// Start writing `path`.
+    pub fn create(path: &Path) -> Result<AtomicFile> {
+        let dir = path.parent().filter(|p| !p.as_os_str().is_empty()).unwrap_or_else(|| Path::new("."));
+        let name = path.file_name().map(|n| n.to_string_lossy().to_string()).unwrap_or_else(|| "out".into());
+        let tmp = dir.join(format!(".{name}.tmp-{}", std::process::id()));
+        let f = std::fs::File::create(&tmp)
+            .map_err(|e| Error::io(path, &e).with_hint("check that the output folder exists and is writable"))?;
+        crate::output::register_temp(&tmp);
+        Ok(AtomicFile { path: path.to_path_buf(), tmp, file: Some(std::io::BufWriter::new(f)) })
+    }
+
+    /// Append bytes.
+    pub fn write(&mut self, bytes: &[u8]) -> Result<()> {
+        match self.file.as_mut() {
+            Some(f) => f.write_all(bytes).map_err(|e| Error::io(&self.path, &e)),
+            None => Ok(()),
+        }
+    }
+
+    /// Flush, sync and rename into place.
+    pub fn finish(mut self) -> Result<()> {
+        if let Some(f) = self.file.take() {
+            let f = f.into_inner().map_err(|e| Error::io(&self.path, e.error()))?;
+            f.sync_all().map_err(|e| Error::io(&self.path, &e))?;
+            std::fs::rename(&self.tmp, &self.path).map_err(|e| Error::io(&self.path, &e))?;
+            crate::output::unregister_temp(&self.tmp);
+        }
+        Ok(())
+    }
+}
+
+impl Drop for AtomicFile {
+    fn drop(&mut self) {
+        if self.file.take().is_some() {
+            let _ = std::fs::remove_file(&self.tmp);
+            crate::output::unregister_temp(&self.tmp);
+        }
+    }
+}
+
+static TEMPS: std::sync::Mutex<Vec<std::path::PathBuf>> = std::sync::Mutex::new(Vec::new());
+
+/// Remember a temporary file so that an interrupt (Ctrl-C, SIGTERM) can remove it.
+pub fn register_temp(p: &Path) {
+    if let Ok(mut v) = TEMPS.lock() {
+        v.push(p.to_path_buf());
+    }
+}
+
+/// Forget a temporary file (it was renamed or removed).
+pub fn unregister_temp(p: &Path) {
+    if let Ok(mut v) = TEMPS.lock() {
+        v.retain(|q| q != p);
+    }
+}
+
+/// Remove every registered temporary file (called from the interrupt handler).
+pub fn remove_temps() {
+    if let Ok(v) = TEMPS.lock() {
+        for p in v.iter() {
+            let _ = std::fs::remove_file(p);
+        }
     }
 }

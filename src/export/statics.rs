@@ -157,3 +157,33 @@ pub fn sweep_csv(r: &SweepReport) -> String {
     }
     o
 }
+
+/// A booktabs table of static solutions, ready to `\input`.
+pub fn statics_latex(r: &StaticsReport) -> String {
+    use super::latex_num;
+    let mut o = format!("% {}\n% equation of state: p = {}\n% requires \\usepackage{{booktabs}}\n", r.provenance, r.equation_of_state);
+    o.push_str("\\begin{tabular}{rrrrrl}\n\\toprule\n$a_0/M$ & $\\sigma_0 M$ & $p_0 M$ & $\\beta^{2}$ & $V''(a_0) M^{2}$ & stability \\\\\n\\midrule\n");
+    for s in &r.static_radii {
+        let mut st = s.stability.name().to_string();
+        if s.double_root || s.near_horizon {
+            st.push_str("$^{*}$");
+        }
+        o.push_str(&format!(
+            "${}$ & ${}$ & ${}$ & ${}$ & ${}$ & {} \\\\\n",
+            latex_num(s.radius),
+            latex_num(s.sigma),
+            latex_num(s.pressure),
+            latex_num(s.beta2),
+            latex_num(s.potential_second_derivative),
+            st
+        ));
+    }
+    if r.static_radii.is_empty() {
+        o.push_str("\\multicolumn{6}{c}{no static radius in the range} \\\\\n");
+    }
+    o.push_str("\\bottomrule\n\\end{tabular}\n");
+    if r.static_radii.iter().any(|s| s.double_root || s.near_horizon) {
+        o.push_str("% $^{*}$ ill-conditioned: a double root or within 1e-6 of a horizon\n");
+    }
+    o
+}

@@ -111,3 +111,76 @@ impl<'a, T: Scalar> Junction<'a, T> {
         Some([v.re, v.v1, v.v2])
     }
 }
+
+impl<'a> Junction<'a, f64> {
+    /// V(R) on the given radii for a timelike shell that is static at `sv.a`, following sigma(R) along the
+    /// motion with `law`: the ODE for Y = R [K^theta_theta] of the module docs is integrated from a0 outward and
+    /// inward with classical fourth-order Runge-Kutta steps of at most 1/200 of the span (sub-stepped between
+    /// requested radii), then V = V(R, Y(R)). Points where the state leaves the domain (a side's B <= 0, the
+    /// law undefined) are NaN.
+    pub fn potential_curve(&self, sv: &StaticValues<f64>, law: Law<f64>, radii: &[f64]) -> Vec<f64> {
+        use crate::scenario::Which;
+        let a0 = sv.a;
+        let y0 = sv.stress.n_r[1] - sv.stress.n_r[0];
+        let sigma0 = sv.stress.sigma();
+        let p0 = sv.stress.pressure();
+        let n_ang = self.n_ang();
+        let pi8 = 8.0 * std::f64::consts::PI;
+        let rhs = |r: f64, y: f64| -> Option<f64> {
+            let jm = self.jet(Which::Minus, r);
+            let jp = self.jet(Which::Plus, r);
+            if jm.b[0] <= 0.0 || jp.b[0] <= 0.0 {
+                return None;
+            }
+            let phi = |j: &super::Jet<f64>| j.a[1] / (2.0 * j.a[0]) - j.b[1] / (2.0 * j.b[0]);
+            let sigma = -y * n_ang / (r * pi8);
+            let p = match law {
+                Law::Linear { beta2 } => p0 + beta2 * (sigma - sigma0),
+                Law::Scenario => self.eos_at(sigma, |t| t)?,
+            };
+            let db = jp.b[0] - jm.b[0];
+            let xp = 0.5 * (y + db * self.eps / y);
+            let xm = 0.5 * (db * self.eps / y - y);
+            let v = pi8 * p - (xp * phi(&jp) - xm * phi(&jm)) - (n_ang - 1.0) * y / r;
+            v.is_finite().then_some(v)
+        };
+        let span = radii.iter().fold(0.0f64, |m, r| m.max((r - a0).abs())).max(1e-12);
+        let hmax = span / 200.0;
+        let integrate = |from: f64, y: f64, to: f64| -> Option<f64> {
+            let n = ((to - from).abs() / hmax).ceil().max(1.0) as usize;
+            let h = (to - from) / n as f64;
+            let (mut r, mut y) = (from, y);
+            for _ in 0..n {
+                let k1 = rhs(r, y)?;
+                let k2 = rhs(r + 0.5 * h, y + 0.5 * h * k1)?;
+                let k3 = rhs(r + 0.5 * h, y + 0.5 * h * k2)?;
+                let k4 = rhs(r + h, y + h * k3)?;
+                y += h / 6.0 * (k1 + 2.0 * k2 + 2.0 * k3 + k4);
+                r += h;
+            }
+            Some(y)
+        };
+        let mut out = vec![f64::NAN; radii.len()];
+        let mut order: Vec<usize> = (0..radii.len()).collect();
+        order.sort_by(|&i, &j| radii[i].total_cmp(&radii[j]));
+        // Outward from a0, then inward, carrying the state between requested radii.
+        for dir in [1.0, -1.0] {
+            let (mut r, mut y) = (a0, Some(y0));
+            let idx: Vec<usize> = if dir > 0.0 {
+                order.iter().copied().filter(|&i| radii[i] >= a0).collect()
+            } else {
+                order.iter().rev().copied().filter(|&i| radii[i] < a0).collect()
+            };
+            for i in idx {
+                y = y.and_then(|yy| integrate(r, yy, radii[i]));
+                r = radii[i];
+                if let Some(yy) = y {
+                    let bm = self.jet(Which::Minus, r).b[0];
+                    let bp = self.jet(Which::Plus, r).b[0];
+                    out[i] = potential_from_y(self.eps, bm, bp, yy);
+                }
+            }
+        }
+        out
+    }
+}

@@ -1,0 +1,210 @@
+//! Map data as CSV (one row per cell) and JSON metadata; parsing back for merging shards.
+
+use super::num;
+use crate::error::{Error, Result};
+use crate::scan::{Cell, CellClass, MapSpec, Summary};
+use crate::scenario::Scenario;
+use serde::{Deserialize, Serialize};
+
+fn unit(kind: crate::scan::AxisKind) -> &'static str {
+    match kind {
+        crate::scan::AxisKind::Radius => "M",
+        crate::scan::AxisKind::Beta2 => "1",
+        crate::scan::AxisKind::Param(_) => "param",
+    }
+}
+
+/// Comment lines (provenance) and the header line.
+pub fn csv_header(s: &Scenario, spec: &MapSpec) -> String {
+    format!(
+        "# {}\n# map {} {}..{} ({} points) x {} {}..{} ({} points); beta2 source: {:?}; empty fields: not defined for the cell's class\nix,iy,{} [{}],{} [{}],radius [M],sigma [1/M],pressure [1/M],beta2 [1],potential_second_derivative [1/M^2],beta2_critical [1],class,null,weak,strong,dominant,n_static\n",
+        s.provenance(),
+        spec.x.name,
+        num(spec.x.lo),
+        num(spec.x.hi),
+        spec.x.n,
+        spec.y.name,
+        num(spec.y.lo),
+        num(spec.y.hi),
+        spec.y.n,
+        spec.beta2,
+        spec.x.name,
+        unit(spec.x.kind),
+        spec.y.name,
+        unit(spec.y.kind),
+    )
+}
+
+fn opt(x: f64) -> String {
+    if x.is_finite() {
+        num(x)
+    } else {
+        String::new()
+    }
+}
+
+/// One CSV row per cell, appended to `out`.
+pub fn csv_rows(cells: &[Cell], out: &mut String) {
+    use std::fmt::Write;
+    for c in cells {
+        let b = c.energy_bits;
+        let has = c.class != CellClass::NoStatic && c.class != CellClass::InsideHorizon;
+        let ec = |bit: u8| if has { if b & bit != 0 { "true" } else { "false" } } else { "" };
+        let _ = writeln!(
+            out,
+            "{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{}",
+            c.ix,
+            c.iy,
+            num(c.x),
+            num(c.y),
+            opt(c.radius),
+            opt(c.sigma),
+            opt(c.pressure),
+            opt(c.beta2),
+            opt(c.v2),
+            opt(c.beta2_critical),
+            c.class.name(),
+            ec(1),
+            ec(2),
+            ec(4),
+            ec(8),
+            c.n_static
+        );
+    }
+}
+
+/// Parse the data rows of a map CSV (comment and header lines skipped) back into cells.
+pub fn parse_rows(text: &str, file: &str) -> Result<Vec<Cell>> {
+    let mut cells = Vec::new();
+    for (ln, line) in text.lines().enumerate() {
+        if line.starts_with('#') || line.starts_with("ix,") || line.is_empty() {
+            continue;
+        }
+        let f: Vec<&str> = line.split(',').collect();
+        let bad = || Error::input(format!("{file}:{}: not a map data row", ln + 1)).with_hint("merge takes the part files written by map --shard");
+        if f.len() != 16 {
+            return Err(bad());
+        }
+        let num = |s: &str| -> Result<f64> { if s.is_empty() { Ok(f64::NAN) } else { s.parse().map_err(|_| bad()) } };
+        let class = CellClass::ALL.iter().copied().find(|c| c.name() == f[10]).ok_or_else(bad)?;
+        let bit = |s: &str, v: u8| if s == "true" { v } else { 0 };
+        cells.push(Cell {
+            ix: f[0].parse().map_err(|_| bad())?,
+            iy: f[1].parse().map_err(|_| bad())?,
+            x: num(f[2])?,
+            y: num(f[3])?,
+            radius: num(f[4])?,
+            sigma: num(f[5])?,
+            pressure: num(f[6])?,
+            beta2: num(f[7])?,
+            v2: num(f[8])?,
+            beta2_critical: num(f[9])?,
+            class,
+            energy_bits: bit(f[11], 1) | bit(f[12], 2) | bit(f[13], 4) | bit(f[14], 8),
+            n_static: f[15].parse().map_err(|_| bad())?,
+        });
+    }
+    Ok(cells)
+}
+
+/// The metadata written beside the data (map.json) and in each part file.
+#[derive(Debug, Clone, Serialize, Deserialize)]
+pub struct MapMeta {
+    /// Tool version.
+    pub version: String,
+    /// Scenario name.
+    pub scenario: String,
+    /// SHA-256 of the scenario text.
+    pub scenario_sha256: String,
+    /// Provenance line.
+    pub provenance: String,
+    /// Parameter names and values.
+    pub parameters: Vec<(String, f64)>,
+    /// The map's axes and beta^2 source, as JSON.
+    pub spec: serde_json::Value,
+    /// Total number of lines of the full map.
+    pub lines: usize,
+    /// Shard index and count (absent in a full map).
+    #[serde(skip_serializing_if = "Option::is_none", default)]
+    pub shard: Option<(usize, usize)>,
+    /// Counts.
+    pub summary: SummaryOut,
+    /// The exact CSV header, so merged files match unsharded ones byte for byte.
+    pub csv_header: String,
+}
+
+/// Summary in JSON form (u64 counts).
+#[derive(Debug, Clone, Copy, Serialize, Deserialize, PartialEq, Eq, Default)]
+pub struct SummaryOut {
+    /// All cells.
+    pub cells: u64,
+    /// Stable.
+    pub stable_cells: u64,
+    /// Unstable.
+    pub unstable_cells: u64,
+    /// Marginal.
+    pub marginal_cells: u64,
+    /// No static shell.
+    pub no_static_cells: u64,
+    /// Inside a horizon.
+    pub inside_horizon_cells: u64,
+    /// NEC holds.
+    pub null_energy_cells: u64,
+    /// WEC holds.
+    pub weak_energy_cells: u64,
+    /// SEC holds.
+    pub strong_energy_cells: u64,
+    /// DEC holds.
+    pub dominant_energy_cells: u64,
+}
+
+impl From<Summary> for SummaryOut {
+    fn from(s: Summary) -> Self {
+        SummaryOut {
+            cells: s.cells,
+            stable_cells: s.stable_cells,
+            unstable_cells: s.unstable_cells,
+            marginal_cells: s.marginal_cells,
+            no_static_cells: s.no_static_cells,
+            inside_horizon_cells: s.inside_horizon_cells,
+            null_energy_cells: s.null_energy_cells,
+            weak_energy_cells: s.weak_energy_cells,
+            strong_energy_cells: s.strong_energy_cells,
+            dominant_energy_cells: s.dominant_energy_cells,
+        }
+    }
+}
+
+impl SummaryOut {
+    /// Sum.
+    pub fn add(&self, o: &SummaryOut) -> SummaryOut {
+        SummaryOut {
+            cells: self.cells + o.cells,
+            stable_cells: self.stable_cells + o.stable_cells,
+            unstable_cells: self.unstable_cells + o.unstable_cells,
+            marginal_cells: self.marginal_cells + o.marginal_cells,
+            no_static_cells: self.no_static_cells + o.no_static_cells,
+            inside_horizon_cells: self.inside_horizon_cells + o.inside_horizon_cells,
+            null_energy_cells: self.null_energy_cells + o.null_energy_cells,
+            weak_energy_cells: self.weak_energy_cells + o.weak_energy_cells,
+            strong_energy_cells: self.strong_energy_cells + o.strong_energy_cells,
+            dominant_energy_cells: self.dominant_energy_cells + o.dominant_energy_cells,
+        }
+    }
+}
+
+/// Build the metadata.
+pub fn meta(s: &Scenario, spec: &MapSpec, summary: SummaryOut, shard: Option<(usize, usize)>) -> MapMeta {
+    MapMeta {
+        version: env!("CARGO_PKG_VERSION").to_string(),
+        scenario: s.name.clone(),
+        scenario_sha256: s.origin.hash.clone(),
+        provenance: s.provenance(),
+        parameters: s.params.names().iter().cloned().zip(s.params.values().iter().copied()).collect(),
+        spec: serde_json::to_value(spec).unwrap_or(serde_json::Value::Null),
+        lines: spec.n_lines(),
+        shard,
+        summary,
+        csv_header: csv_header(s, spec),
+    }
+}

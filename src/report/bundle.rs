@@ -1,0 +1,160 @@
+//! `report`: everything a paper draft needs for one scenario, in one folder, each file carrying its provenance.
+
+use super::derive::{derive, State};
+use super::figures;
+use crate::error::{Error, Result};
+use crate::export;
+use crate::output::{ensure_dir, write_atomic};
+use crate::plot::write_figure;
+use crate::scan::{evaluate_lines, Axis, MapSpec};
+use crate::scenario::{Scenario, ShellKind, Which};
+use crate::statics::sweep::sweep;
+use crate::statics::{find_static_radii, r_region_intervals, StaticsOptions};
+use std::path::{Path, PathBuf};
+
+/// What to include beyond the defaults.
+#[derive(Debug, Clone, Default)]
+pub struct ReportOptions {
+    /// A sweep: (parameter, lo, hi, n).
+    pub vary: Option<(String, f64, f64, usize)>,
+    /// Radius range override.
+    pub range: Option<(f64, f64)>,
+    /// Map resolution (radius points, beta^2 points).
+    pub map_size: (usize, usize),
+}
+
+/// A radius range where a static timelike shell can sit, for plots: the outermost interval where both sides
+/// are R-regions within the default survey range, its upper end clipped to a few times the length scale.
+pub fn plot_range(s: &Scenario) -> Option<(f64, f64)> {
+    let (lo, hi) = crate::metric::default_range(s);
+    let (ivs, _) = r_region_intervals(s, s.params.values(), lo, hi, &StaticsOptions::default());
+    let l = crate::metric::length_scale(s);
+    // Prefer the interval that contains most of [L, 12 L]; fall back to the last one.
+    let iv = ivs
+        .iter()
+        .max_by(|a, b| overlap(a.from, a.to, l, 12.0 * l).total_cmp(&overlap(b.from, b.to, l, 12.0 * l)))?;
+    let from = iv.from * (1.0 + 1e-3);
+    let to = iv.to.min((from * 6.0).max(12.0 * l));
+    (to > from).then_some((from, to))
+}
+
+fn overlap(a0: f64, a1: f64, b0: f64, b1: f64) -> f64 {
+    (a1.min(b1) - a0.max(b0)).max(0.0) + if a1 > b0 { 1e-9 } else { 0.0 }
+}
+
+struct Listing {
+    dir: PathBuf,
+    files: Vec<(PathBuf, String)>,
+}
+
+impl Listing {
+    fn put(&mut self, name: &str, bytes: &[u8], what: &str) -> Result<()> {
+        let p = self.dir.join(name);
+        write_atomic(&p, bytes)?;
+        self.files.push((p, what.to_string()));
+        Ok(())
+    }
+    fn figure(&mut self, fig: &crate::plot::Figure, stem: &str, what: &str) -> Result<()> {
+        for p in write_figure(fig, &self.dir, stem)? {
+            self.files.push((p, what.to_string()));
+        }
+        Ok(())
+    }
+}
+
+/// Write the report for `s` into `dir`; returns the files written with a one-line description each.
+pub fn write_report(s: &Scenario, dir: &Path, opts: &ReportOptions) -> Result<Vec<(PathBuf, String)>> {
+    ensure_dir(dir)?;
+    let mut out = Listing { dir: dir.to_path_buf(), files: Vec::new() };
+    let prov = s.provenance();
+    // Side survey.
+    let (slo, shi) = crate::metric::default_range(s);
+    let ropts = crate::roots::RootOptions { samples: 4000, ..Default::default() };
+    let survey: Vec<(String, crate::metric::SideSurvey)> = [Which::Minus, Which::Plus]
+        .iter()
+        .map(|&w| (w.name().to_string(), crate::metric::survey(&crate::metric::SideFns::new(s.side(w), s.params.values()), slo, shi, &ropts)))
+        .collect();
+    let survey_json = serde_json::json!({ "provenance": prov, "from": slo, "to": shi, "sides": survey.iter().map(|(n, sv)| serde_json::json!({"side": n, "survey": sv})).collect::<Vec<_>>() });
+    out.put("sides.json", pretty(&survey_json).as_bytes(), "horizons, R-/T-regions and photon orbits of each side")?;
+
+    match s.shell.kind {
+        ShellKind::Spacelike => spacelike_part(s, &survey, &mut out)?,
+        ShellKind::Timelike => timelike_part(s, opts, &mut out)?,
+    }
+    // summary.md names every file.
+    let mut md = format!("# junctura report: {}\n\n`{}`\n\n| file | contents |\n| --- | --- |\n", s.name, prov);
+    for (p, what) in &out.files {
+        let name = p.file_name().map(|n| n.to_string_lossy().to_string()).unwrap_or_default();
+        md.push_str(&format!("| `{name}` | {what} |\n"));
+    }
+    md.push_str("\nEvery file carries the provenance line above (a comment in .csv/.tex, a key in .json, metadata in the figures).\n");
+    out.put("summary.md", md.as_bytes(), "this list")?;
+    Ok(out.files)
+}
+
+fn pretty(v: &serde_json::Value) -> String {
+    serde_json::to_string_pretty(v).unwrap_or_default()
+}
+
+fn spacelike_part(s: &Scenario, survey: &[(String, crate::metric::SideSurvey)], out: &mut Listing) -> Result<()> {
+    // A radius inside both T-regions: the middle of the first common T interval.
+    let t = |i: usize| survey[i].1.regions.iter().filter(|r| r.kind == crate::metric::RegionKind::T).map(|r| (r.from, r.to)).collect::<Vec<_>>();
+    let (tm, tp) = (t(0), t(1));
+    let r = tm
+        .iter()
+        .flat_map(|a| tp.iter().map(move |b| (a.0.max(b.0), a.1.min(b.1))))
+        .find(|(lo, hi)| hi > lo)
+        .map(|(lo, hi)| 0.5 * (lo + hi))
+        .ok_or_else(|| Error::numerical("no radius lies inside the T-regions of both sides: no static spacelike shell"))?;
+    let rep = derive(s, State::at_rest(r))?;
+    out.put("formulas.tex", export::derive::latex(&rep).as_bytes(), &format!("junction formulas (LaTeX, amsmath) and values at R = {r}"))?;
+    out.put("derive.json", serde_json::to_string_pretty(&rep).unwrap_or_default().as_bytes(), "all junction quantities at that radius")?;
+    out.put("derive.txt", export::derive::text(&rep).as_bytes(), "readable summary")?;
+    Ok(())
+}
+
+fn timelike_part(s: &Scenario, opts: &ReportOptions, out: &mut Listing) -> Result<()> {
+    let (lo, hi) = opts
+        .range
+        .or_else(|| plot_range(s))
+        .ok_or_else(|| Error::numerical("no radius where both sides are R-regions: no static timelike shell").with_hint("check the scenario with `junctura check`"))?;
+    let statics = if s.shell.eos.is_some() { Some(find_static_radii(s, lo, hi, &StaticsOptions::default())?) } else { None };
+    let r_ref = statics.as_ref().and_then(|st| st.static_radii.first().map(|r| r.radius)).unwrap_or((lo * hi).sqrt());
+    let rep = derive(s, State::at_rest(r_ref))?;
+    out.put("formulas.tex", export::derive::latex(&rep).as_bytes(), &format!("junction formulas (LaTeX, amsmath) and values at a = {r_ref}"))?;
+    out.put("derive.json", serde_json::to_string_pretty(&rep).unwrap_or_default().as_bytes(), "all junction quantities at that radius")?;
+    out.put("derive.txt", export::derive::text(&rep).as_bytes(), "readable summary")?;
+    if let Some(st) = &statics {
+        out.put("statics.csv", export::statics::statics_csv(st).as_bytes(), "static radii of the equation of state (CSV)")?;
+        out.put("statics.json", serde_json::to_string_pretty(st).unwrap_or_default().as_bytes(), "static radii (JSON)")?;
+        out.put("static_solutions.tex", export::statics::statics_latex(st).as_bytes(), "table of static solutions (LaTeX, booktabs)")?;
+        if let Some(fig) = figures::potential_figure(s, st) {
+            out.figure(&fig, "potential", "potential V(a) around each static radius")?;
+        }
+    }
+    out.figure(&figures::sigma_pressure_figure(s, lo, hi), "sigma_pressure", "sigma0(a), p0(a) with energy-condition bands")?;
+    // Stability map over (radius, beta^2).
+    let (nx, ny) = if opts.map_size.0 > 0 { opts.map_size } else { (240, 180) };
+    let x = Axis::new(s, "radius", lo, hi, nx)?;
+    let y = Axis::new(s, "beta2", -3.0, 3.0, ny)?;
+    let spec = MapSpec::new(s, x, y, None, (lo, hi))?;
+    let lines = evaluate_lines(s, &spec, 0..spec.n_lines())?;
+    let mut csv = export::map::csv_header(s, &spec);
+    let mut cells = Vec::with_capacity(nx * ny);
+    for l in &lines {
+        export::map::csv_rows(l, &mut csv);
+        cells.extend_from_slice(l);
+    }
+    out.put("map_radius_beta2.csv", csv.as_bytes(), "stability map over (a, beta^2): one row per cell")?;
+    out.figure(&figures::map_figure(s.provenance(), &spec, &cells), "map_radius_beta2", "stability regions over (a, beta^2) with the critical curve and energy-condition boundaries")?;
+    if let Some((name, vlo, vhi, n)) = &opts.vary {
+        if s.shell.eos.is_some() {
+            let values: Vec<f64> = (0..*n).map(|i| if i + 1 == *n { *vhi } else { vlo + (vhi - vlo) * i as f64 / (*n - 1).max(1) as f64 }).collect();
+            let sw = sweep(s, name, &values, lo, hi, &StaticsOptions::default())?;
+            out.put("sweep.csv", export::statics::sweep_csv(&sw).as_bytes(), &format!("branches of static radii as {name} varies"))?;
+            out.put("sweep.json", serde_json::to_string_pretty(&sw).unwrap_or_default().as_bytes(), "branches (JSON)")?;
+            out.figure(&figures::sweep_figure(&sw), "sweep", "static branches: stable solid, unstable dashed, folds marked")?;
+        }
+    }
+    Ok(())
+}

@@ -1,0 +1,357 @@
+//! One map cell: its values, its class, and the per-line evaluator.
+
+use super::grid::{AxisKind, Beta2Source, MapSpec};
+use crate::error::Result;
+use crate::junction::{EnergyConditions, Junction, HORIZON_TOL};
+use crate::scenario::{Scenario, Which};
+use crate::statics::{find_static_radii, Stability, StaticsOptions};
+use serde::Serialize;
+
+/// Stability class of a cell.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+#[repr(u8)]
+pub enum CellClass {
+    /// V''(a0) > 0.
+    Stable = 0,
+    /// V''(a0) < 0.
+    Unstable = 1,
+    /// V''(a0) = 0 within tolerance.
+    Marginal = 2,
+    /// No static shell (the junction values do not exist there, or the law has no static radius).
+    NoStatic = 3,
+    /// The radius is inside (or on) a horizon of a side: no static timelike shell.
+    InsideHorizon = 4,
+}
+
+impl CellClass {
+    /// Every class, in index order.
+    pub const ALL: [CellClass; 5] =
+        [CellClass::Stable, CellClass::Unstable, CellClass::Marginal, CellClass::NoStatic, CellClass::InsideHorizon];
+
+    /// The word used in data files.
+    pub fn name(self) -> &'static str {
+        match self {
+            CellClass::Stable => "stable",
+            CellClass::Unstable => "unstable",
+            CellClass::Marginal => "marginal",
+            CellClass::NoStatic => "no_static_shell",
+            CellClass::InsideHorizon => "inside_horizon",
+        }
+    }
+}
+
+/// One evaluated cell. Numbers that do not exist for the class are NaN (written as empty fields with the
+/// class as the reason).
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Cell {
+    /// x index.
+    pub ix: u32,
+    /// y index.
+    pub iy: u32,
+    /// x value.
+    pub x: f64,
+    /// y value.
+    pub y: f64,
+    /// sigma0 (NaN if none; for maps without a radius axis: at the static radius that decided the class).
+    pub sigma: f64,
+    /// p0.
+    pub pressure: f64,
+    /// The static radius (the radius axis value, or the deciding static radius).
+    pub radius: f64,
+    /// beta^2 used.
+    pub beta2: f64,
+    /// V''(a0).
+    pub v2: f64,
+    /// beta^2 critical (NaN if V'' does not depend on beta^2 or no static shell).
+    pub beta2_critical: f64,
+    /// Class.
+    pub class: CellClass,
+    /// Energy conditions as bits: 1 null, 2 weak, 4 strong, 8 dominant.
+    pub energy_bits: u8,
+    /// Number of static radii (maps without a radius axis), else 1 or 0.
+    pub n_static: u8,
+}
+
+impl Cell {
+    fn empty(ix: usize, iy: usize, x: f64, y: f64, class: CellClass) -> Cell {
+        Cell {
+            ix: ix as u32,
+            iy: iy as u32,
+            x,
+            y,
+            sigma: f64::NAN,
+            pressure: f64::NAN,
+            radius: f64::NAN,
+            beta2: f64::NAN,
+            v2: f64::NAN,
+            beta2_critical: f64::NAN,
+            class,
+            energy_bits: 0,
+            n_static: 0,
+        }
+    }
+}
+
+/// Counts per class (and per energy condition among cells with a static shell).
+#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, Serialize)]
+pub struct Summary {
+    /// All cells.
+    pub cells: u64,
+    /// Stable.
+    pub stable_cells: u64,
+    /// Unstable.
+    pub unstable_cells: u64,
+    /// Marginal.
+    pub marginal_cells: u64,
+    /// No static shell.
+    pub no_static_cells: u64,
+    /// Inside a horizon.
+    pub inside_horizon_cells: u64,
+    /// Cells where the null energy condition holds.
+    pub null_energy_cells: u64,
+    /// Cells where the weak energy condition holds.
+    pub weak_energy_cells: u64,
+    /// Cells where the strong energy condition holds.
+    pub strong_energy_cells: u64,
+    /// Cells where the dominant energy condition holds.
+    pub dominant_energy_cells: u64,
+}
+
+impl Summary {
+    /// Count one cell.
+    #[inline]
+    pub fn add(&mut self, class: CellClass, bits: u8) {
+        self.cells += 1;
+        match class {
+            CellClass::Stable => self.stable_cells += 1,
+            CellClass::Unstable => self.unstable_cells += 1,
+            CellClass::Marginal => self.marginal_cells += 1,
+            CellClass::NoStatic => self.no_static_cells += 1,
+            CellClass::InsideHorizon => self.inside_horizon_cells += 1,
+        }
+        self.null_energy_cells += u64::from(bits & 1);
+        self.weak_energy_cells += u64::from((bits >> 1) & 1);
+        self.strong_energy_cells += u64::from((bits >> 2) & 1);
+        self.dominant_energy_cells += u64::from((bits >> 3) & 1);
+    }
+
+    /// Sum of two summaries.
+    pub fn merge(&self, o: &Summary) -> Summary {
+        Summary {
+            cells: self.cells + o.cells,
+            stable_cells: self.stable_cells + o.stable_cells,
+            unstable_cells: self.unstable_cells + o.unstable_cells,
+            marginal_cells: self.marginal_cells + o.marginal_cells,
+            no_static_cells: self.no_static_cells + o.no_static_cells,
+            inside_horizon_cells: self.inside_horizon_cells + o.inside_horizon_cells,
+            null_energy_cells: self.null_energy_cells + o.null_energy_cells,
+            weak_energy_cells: self.weak_energy_cells + o.weak_energy_cells,
+            strong_energy_cells: self.strong_energy_cells + o.strong_energy_cells,
+            dominant_energy_cells: self.dominant_energy_cells + o.dominant_energy_cells,
+        }
+    }
+}
+
+/// Energy-condition bits.
+pub fn energy_bits(ec: EnergyConditions) -> u8 {
+    u8::from(ec.null) | u8::from(ec.weak) << 1 | u8::from(ec.strong) << 2 | u8::from(ec.dominant) << 3
+}
+
+/// Relative |V''| below which a cell is marginal.
+pub const MARGINAL_TOL: f64 = 1e-9;
+
+/// Static values at one radius with one parameter set: (sigma0, p0, c0, c1), or the class that says why not.
+pub(crate) fn static_point(j: &Junction<f64>, a: f64) -> std::result::Result<(f64, f64, f64, f64), CellClass> {
+    let jm = j.jet(Which::Minus, a);
+    let jp = j.jet(Which::Plus, a);
+    for jet in [&jm, &jp] {
+        let b = jet.b[0];
+        if b.is_nan() || jet.a[0].is_nan() {
+            return Err(CellClass::NoStatic);
+        }
+        if b <= HORIZON_TOL * (1.0 + a * jet.b[1].abs()) {
+            return Err(CellClass::InsideHorizon);
+        }
+        if jet.a[0] <= 0.0 {
+            return Err(CellClass::NoStatic);
+        }
+    }
+    let stress = j.stress_with_jets(&jm, &jp, a, 0.0, 0.0).map_err(|_| CellClass::NoStatic)?;
+    let sv = crate::junction::StaticValues { a, stress, jets: [jm, jp] };
+    let (c0, c1) = j.v2_coefficients(&sv).map_err(|_| CellClass::NoStatic)?;
+    let (sigma, p) = (stress.sigma(), stress.pressure());
+    if !(sigma.is_finite() && p.is_finite() && c0.is_finite() && c1.is_finite()) {
+        return Err(CellClass::NoStatic);
+    }
+    Ok((sigma, p, c0, c1))
+}
+
+/// Classify V'' = c0 + c1 beta^2.
+#[inline]
+pub fn classify_v2(c0: f64, c1: f64, beta2: f64) -> (f64, CellClass) {
+    let v2 = c0 + c1 * beta2;
+    let scale = c0.abs() + (c1 * beta2).abs();
+    let class = if v2.abs() <= MARGINAL_TOL * scale {
+        CellClass::Marginal
+    } else if v2 > 0.0 {
+        CellClass::Stable
+    } else {
+        CellClass::Unstable
+    };
+    (v2, class)
+}
+
+/// Evaluates lines of a map.
+pub struct Evaluator<'a> {
+    s: &'a Scenario,
+    spec: &'a MapSpec,
+    statics: StaticsOptions,
+}
+
+impl<'a> Evaluator<'a> {
+    /// Prepare.
+    pub fn new(s: &'a Scenario, spec: &'a MapSpec) -> Result<Evaluator<'a>> {
+        let statics = StaticsOptions { roots: crate::roots::RootOptions { samples: 600, ..Default::default() }, ..Default::default() };
+        Ok(Evaluator { s, spec, statics })
+    }
+
+    /// Parameters and radius (NaN if no radius axis) for a point with axis values (x, y).
+    fn point(&self, x: f64, y: f64, params: &mut [f64]) -> (f64, f64) {
+        let mut radius = f64::NAN;
+        let mut beta2 = f64::NAN;
+        for (axis, v) in [(&self.spec.x, x), (&self.spec.y, y)] {
+            match axis.kind {
+                AxisKind::Radius => radius = v,
+                AxisKind::Beta2 => beta2 = v,
+                AxisKind::Param(k) => params[k] = v,
+            }
+        }
+        (radius, beta2)
+    }
+
+    /// All cells of line `i`, in order along the line.
+    pub fn line(&self, i: usize) -> Vec<Cell> {
+        let mut out = Vec::with_capacity(self.spec.line_len());
+        self.for_each_cell(i, |c| out.push(c));
+        out
+    }
+
+    /// Count line `i` into `acc`.
+    pub fn line_summary(&self, i: usize, acc: &mut Summary) {
+        self.for_each_cell(i, |c| acc.add(c.class, c.energy_bits));
+    }
+
+    fn for_each_cell<F: FnMut(Cell)>(&self, i: usize, mut emit: F) {
+        let spec = self.spec;
+        let mut params = self.s.params.values().to_vec();
+        let n = spec.line_len();
+        let xy = |j: usize| {
+            let (ix, iy) = spec.cell_index(i, j);
+            (ix, iy, spec.x.value(ix), spec.y.value(iy))
+        };
+        let beta_axis = spec.x.kind == AxisKind::Beta2 || spec.y.kind == AxisKind::Beta2;
+        if beta_axis {
+            // One junction evaluation for the whole line; V'' is linear in beta^2.
+            let (_, _, x0, y0) = xy(0);
+            let (radius, _) = self.point(x0, y0, &mut params);
+            let j = Junction::with_params(self.s, params.clone());
+            let res = static_point(&j, radius);
+            for jj in 0..n {
+                let (ix, iy, x, y) = xy(jj);
+                let beta2 = if spec.x.kind == AxisKind::Beta2 { x } else { y };
+                emit(match res {
+                    Ok((sigma, p, c0, c1)) => self.radius_cell(ix, iy, x, y, radius, beta2, sigma, p, c0, c1),
+                    Err(class) => Cell::empty(ix, iy, x, y, class),
+                });
+            }
+            return;
+        }
+        for jj in 0..n {
+            let (ix, iy, x, y) = xy(jj);
+            let (radius, _) = self.point(x, y, &mut params);
+            if radius.is_nan() {
+                emit(self.statics_cell(ix, iy, x, y, &params));
+                continue;
+            }
+            let j = Junction::with_params(self.s, params.clone());
+            emit(match static_point(&j, radius) {
+                Ok((sigma, p, c0, c1)) => {
+                    let beta2 = match spec.beta2 {
+                        Beta2Source::Fixed(b) => b,
+                        _ => j.eos_at(num_dual::Dual64::new(sigma, 1.0), num_dual::Dual64::from).map(|d| d.eps).unwrap_or(f64::NAN),
+                    };
+                    if beta2.is_finite() {
+                        self.radius_cell(ix, iy, x, y, radius, beta2, sigma, p, c0, c1)
+                    } else {
+                        Cell::empty(ix, iy, x, y, CellClass::NoStatic)
+                    }
+                }
+                Err(class) => Cell::empty(ix, iy, x, y, class),
+            });
+        }
+    }
+
+    #[allow(clippy::too_many_arguments)]
+    #[inline]
+    fn radius_cell(&self, ix: usize, iy: usize, x: f64, y: f64, radius: f64, beta2: f64, sigma: f64, p: f64, c0: f64, c1: f64) -> Cell {
+        let (v2, class) = classify_v2(c0, c1, beta2);
+        let crit = if c1.abs() > crate::junction::stability::SLOPE_TOL * c0.abs().max(c1.abs()) { -c0 / c1 } else { f64::NAN };
+        Cell {
+            ix: ix as u32,
+            iy: iy as u32,
+            x,
+            y,
+            sigma,
+            pressure: p,
+            radius,
+            beta2,
+            v2,
+            beta2_critical: crit,
+            class,
+            energy_bits: energy_bits(EnergyConditions::evaluate(sigma, p, self.s.dimension)),
+            n_static: 1,
+        }
+    }
+
+    fn statics_cell(&self, ix: usize, iy: usize, x: f64, y: f64, params: &[f64]) -> Cell {
+        let mut sc = self.s.clone();
+        for (k, v) in params.iter().enumerate() {
+            let name = sc.params.names()[k].clone();
+            if sc.params.set(&name, *v).is_err() {
+                return Cell::empty(ix, iy, x, y, CellClass::NoStatic);
+            }
+        }
+        let (lo, hi) = self.spec.radius_range;
+        let Ok(rep) = find_static_radii(&sc, lo, hi, &self.statics) else {
+            return Cell::empty(ix, iy, x, y, CellClass::NoStatic);
+        };
+        let pick = rep
+            .static_radii
+            .iter()
+            .find(|r| r.stability == Stability::Stable)
+            .or_else(|| rep.static_radii.iter().find(|r| r.stability == Stability::Marginal))
+            .or_else(|| rep.static_radii.first());
+        let Some(r) = pick else { return Cell::empty(ix, iy, x, y, CellClass::NoStatic) };
+        let class = match r.stability {
+            Stability::Stable => CellClass::Stable,
+            Stability::Unstable => CellClass::Unstable,
+            Stability::Marginal => CellClass::Marginal,
+        };
+        Cell {
+            ix: ix as u32,
+            iy: iy as u32,
+            x,
+            y,
+            sigma: r.sigma,
+            pressure: r.pressure,
+            radius: r.radius,
+            beta2: r.beta2,
+            v2: r.potential_second_derivative,
+            beta2_critical: r.beta2_critical.unwrap_or(f64::NAN),
+            class,
+            energy_bits: energy_bits(r.energy_conditions),
+            n_static: rep.static_radii.len().min(255) as u8,
+        }
+    }
+}

@@ -29,6 +29,7 @@ import sys
 import mpmath as mp
 import sympy as sp
 
+sys.dont_write_bytecode = True  # keep the source tree clean
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
 import project_syntax  # noqa: E402
 

@@ -31,6 +31,7 @@ pub mod error;
 pub mod expr;
 pub mod metric;
 pub mod output;
+pub mod plot;
 pub mod roots;
 pub mod scenario;
 

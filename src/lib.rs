@@ -33,6 +33,7 @@ pub mod expr;
 pub mod junction;
 pub mod metric;
 pub mod output;
+pub mod plot;
 pub mod report;
 pub mod roots;
 pub mod scan;

@@ -3,6 +3,7 @@
 mod check;
 mod common;
 mod derive;
+mod map;
 mod statics;
 
 use clap::{Parser, Subcommand};
@@ -28,6 +29,10 @@ enum Command {
     Tune(statics::TuneArgs),
     /// Follow every branch of static radii as one parameter varies (through folds).
     Sweep(statics::SweepArgs),
+    /// Two-parameter map of a static shell's stability and energy conditions (data, figure, or --summary).
+    Map(map::MapArgs),
+    /// Join the part files of a sharded map into exactly what the unsharded run writes.
+    Merge(map::MergeArgs),
 }
 
 /// Run the program; returns the process exit code.
@@ -46,6 +51,8 @@ pub fn run() -> i32 {
         Command::Statics(a) => statics::run_statics(a),
         Command::Tune(a) => statics::run_tune(a),
         Command::Sweep(a) => statics::run_sweep(a),
+        Command::Map(a) => map::run(a),
+        Command::Merge(a) => map::run_merge(a),
     };
     match result {
         Ok(()) => 0,

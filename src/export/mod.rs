@@ -1,6 +1,7 @@
 //! Pure renderers: reports in, text/LaTeX/CSV bytes out. Nothing here writes files (see `output`).
 
 pub mod derive;
+pub mod map;
 pub mod statics;
 
 /// A number with full f64 precision (shortest round-trip form), `null`-free: NaN and infinities spelled out.

@@ -74,7 +74,7 @@ pub fn map_figure(provenance: String, spec: &MapSpec, cells: &[Cell]) -> Figure 
         series.push(Series { label: "β²_c (critical)".into(), points: pts, style: LineStyle::Solid, colour: 4 });
     }
     // Energy-condition boundaries: cell edges across which a condition changes.
-    for (bit, label, col, style) in [(2u8, "weak EC boundary", 3usize, LineStyle::Dashed), (8u8, "dominant EC boundary", 6usize, LineStyle::Dotted)] {
+    for (bit, label, col, style) in [(1u8, "null EC boundary", 0usize, LineStyle::DashDot), (2u8, "weak EC boundary", 3usize, LineStyle::Dashed), (8u8, "dominant EC boundary", 6usize, LineStyle::Dotted)] {
         let mut pts: Vec<(f64, f64)> = Vec::new();
         for iy in 0..ny {
             for ix in 0..nx {
@@ -223,7 +223,7 @@ pub fn sweep_figure(rep: &SweepReport) -> Figure {
         // Split each branch into runs of equal stability; consecutive runs share their end point.
         let mut run: Vec<(f64, f64)> = Vec::new();
         let mut cur: Option<Stability> = None;
-        let mut flush = |run: &mut Vec<(f64, f64)>, st: Option<Stability>, series: &mut Vec<Series>| {
+        let flush = |run: &mut Vec<(f64, f64)>, st: Option<Stability>, series: &mut Vec<Series>| {
             if run.len() > 1 {
                 let stable = st == Some(Stability::Stable);
                 series.push(Series {

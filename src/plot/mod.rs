@@ -1,0 +1,345 @@
+//! Paper-ready figures: a plain [`Figure`] description in, SVG text, PNG bytes or PDF bytes out.
+//!
+//! Figures are sized for one journal column (8.5 cm wide), with 7-8.5 pt text in the bundled DejaVu Sans
+//! (no system fonts needed; the PDF embeds it), ~1 pt lines, a legend, the colour-blind-safe Okabe-Ito
+//! palette and line styles that keep curves apart in greyscale. A dense 2-D map of categories (e.g. which
+//! kind of solution each parameter point has) is embedded as one bitmap under vector axes and curves.
+//! Every output carries the figure's provenance line: an XML comment and `<metadata>` in the SVG, the
+//! document information (subject, keywords) in the PDF, a `tEXt` chunk in the PNG.
+//!
+//! The renderers are pure; [`write_figure`] is the one helper that writes files (`stem.svg`, `stem.pdf`,
+//! `stem.png`), through [`crate::output::write_atomic`].
+//!
+//! ```
+//! use junctura::plot::{render_svg, Figure, LineStyle, Marker, RefLine, Series};
+//! let m = 1.0;
+//! // V(a) = 1 - 2M/a for a Schwarzschild thin-shell wormhole with a static sigma, just as a curve to draw.
+//! let pts: Vec<(f64, f64)> = (0..200).map(|i| 2.0 + 8.0 * i as f64 / 199.0).map(|a| (a, 1.0 - 2.0 * m / a)).collect();
+//! let fig = Figure {
+//!     x_label: "a/M".into(),
+//!     y_label: "V(a)".into(),
+//!     series: vec![Series { label: "V".into(), points: pts, style: LineStyle::Solid, colour: 0 }],
+//!     markers: vec![Marker { x: 3.0, y: 1.0 / 3.0, label: "a₀".into(), filled: false, colour: 1 }],
+//!     ref_lines: vec![RefLine::vertical(2.0 * m, "horizon")],
+//!     provenance: "example; m = 1".into(),
+//!     ..Figure::default()
+//! };
+//! let svg = render_svg(&fig).unwrap();
+//! assert!(svg.contains("a/M") && svg.contains("V(a)") && svg.contains("example; m = 1"));
+//! ```
+
+mod draw;
+mod encode;
+mod geom;
+mod style;
+
+use crate::error::{Error, Result};
+use std::path::{Path, PathBuf};
+
+pub use encode::{render_pdf, render_png, render_svg};
+
+/// A figure: axes, curves, shaded bands, marked points, reference lines and an optional category map.
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct Figure {
+    /// Optional title above the plot (papers usually put this in the caption instead).
+    pub title: Option<String>,
+    /// Horizontal axis label, physics notation in plain Unicode (e.g. "a/M", "β²").
+    pub x_label: String,
+    /// Vertical axis label.
+    pub y_label: String,
+    /// Horizontal range; None takes it from the category map if there is one, else from the data.
+    pub x_range: Option<(f64, f64)>,
+    /// Vertical range; None takes it from the category map if there is one, else from the data (with 5 %
+    /// padding).
+    pub y_range: Option<(f64, f64)>,
+    /// Curves.
+    pub series: Vec<Series>,
+    /// Shaded regions.
+    pub bands: Vec<Band>,
+    /// Labelled points (filled or open).
+    pub markers: Vec<Marker>,
+    /// Dotted grey reference lines (horizons, V = 0, ...).
+    pub ref_lines: Vec<RefLine>,
+    /// A dense 2-D map of categories, drawn as one embedded bitmap under everything else.
+    pub categories: Option<CategoryMap>,
+    /// One line saying what produced the figure: scenario, hash, parameters, tool version.
+    pub provenance: String,
+}
+
+/// One curve. Points with a non-finite coordinate (NaN, ±inf) are gaps: the line breaks there.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Series {
+    /// Legend text; an empty label keeps the curve out of the legend.
+    pub label: String,
+    /// Points in data coordinates, in drawing order.
+    pub points: Vec<(f64, f64)>,
+    /// Dash pattern.
+    pub style: LineStyle,
+    /// Palette index (wraps around the eight palette colours).
+    pub colour: usize,
+}
+
+/// Line dash pattern.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum LineStyle {
+    /// Continuous line.
+    #[default]
+    Solid,
+    /// Long dashes.
+    Dashed,
+    /// Short dots.
+    Dotted,
+    /// Alternating dash and dot.
+    DashDot,
+}
+
+impl LineStyle {
+    /// The i-th style of the cycle Solid, Dashed, DashDot, Dotted (pair it with palette index i so that
+    /// curves differ both in colour and in pattern).
+    pub fn cycle(i: usize) -> Self {
+        [LineStyle::Solid, LineStyle::Dashed, LineStyle::DashDot, LineStyle::Dotted][i % 4]
+    }
+
+    /// On/off lengths in points (empty: solid).
+    pub(crate) fn pattern_pt(self) -> &'static [f64] {
+        match self {
+            LineStyle::Solid => &[],
+            LineStyle::Dashed => &[4.0, 2.0],
+            LineStyle::Dotted => &[1.0, 1.5],
+            LineStyle::DashDot => &[4.0, 1.5, 1.0, 1.5],
+        }
+    }
+}
+
+/// A shaded region.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Band {
+    /// The full height of the plot between two x values (e.g. where a condition holds).
+    XInterval {
+        /// Legend text (empty: not in the legend).
+        label: String,
+        /// Left end.
+        from: f64,
+        /// Right end.
+        to: f64,
+        /// Palette index.
+        colour: usize,
+    },
+    /// The region between two curves sampled at the same x: `(x, y_low, y_high)`; a non-finite entry
+    /// breaks the band.
+    Between {
+        /// Legend text (empty: not in the legend).
+        label: String,
+        /// Samples `(x, y_low, y_high)`.
+        points: Vec<(f64, f64, f64)>,
+        /// Palette index.
+        colour: usize,
+    },
+}
+
+/// A labelled point, e.g. a static radius: filled for stable, open for unstable. Non-finite points are
+/// skipped.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Marker {
+    /// x in data coordinates.
+    pub x: f64,
+    /// y in data coordinates.
+    pub y: f64,
+    /// Text written beside the point (may be empty).
+    pub label: String,
+    /// Filled disc (true) or open circle (false).
+    pub filled: bool,
+    /// Palette index.
+    pub colour: usize,
+}
+
+/// Direction of a reference line.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Orientation {
+    /// x = const.
+    Vertical,
+    /// y = const.
+    Horizontal,
+}
+
+/// A dotted grey reference line with a small label (a horizon radius, V = 0, ...).
+#[derive(Debug, Clone, PartialEq)]
+pub struct RefLine {
+    /// Vertical (x = at) or horizontal (y = at).
+    pub orientation: Orientation,
+    /// Position in data coordinates.
+    pub at: f64,
+    /// Label written at the line's end (may be empty).
+    pub label: String,
+}
+
+impl RefLine {
+    /// The line x = `at`.
+    pub fn vertical(at: f64, label: impl Into<String>) -> Self {
+        RefLine { orientation: Orientation::Vertical, at, label: label.into() }
+    }
+    /// The line y = `at`.
+    pub fn horizontal(at: f64, label: impl Into<String>) -> Self {
+        RefLine { orientation: Orientation::Horizontal, at, label: label.into() }
+    }
+}
+
+/// A dense map of categories on a regular grid, drawn as one bitmap.
+#[derive(Debug, Clone, PartialEq)]
+pub struct CategoryMap {
+    /// x grid: (first cell's left edge, last cell's right edge, number of cells).
+    pub x: (f64, f64, usize),
+    /// y grid: (bottom edge, top edge, number of cells).
+    pub y: (f64, f64, usize),
+    /// Category index per cell, row-major: y index outer (row 0 at the bottom), x index inner.
+    pub cells: Vec<u8>,
+    /// Category names (for the legend) and palette indices, indexed by the cell values.
+    pub categories: Vec<(String, usize)>,
+}
+
+/// Render `fig` to `dir/stem.svg`, `dir/stem.pdf` and `dir/stem.png` and return the three paths. All three
+/// are rendered before any is written, so a rendering failure leaves no partial set of files.
+pub fn write_figure(fig: &Figure, dir: &Path, stem: &str) -> Result<Vec<PathBuf>> {
+    if stem.is_empty() || stem.contains(['/', '\\']) {
+        return Err(Error::input(format!("figure file stem {stem:?} is not a plain file name"))
+            .with_hint("give a name without folders, e.g. \"potential\""));
+    }
+    let svg = render_svg(fig)?;
+    let pdf = encode::pdf_from_svg(&svg, &fig.provenance, fig.title.as_deref())?;
+    let png = render_png(fig)?;
+    crate::output::ensure_dir(dir)?;
+    let mut paths = Vec::new();
+    for (ext, bytes) in [("svg", svg.as_bytes()), ("pdf", pdf.as_slice()), ("png", png.as_slice())] {
+        let p = dir.join(format!("{stem}.{ext}"));
+        crate::output::write_atomic(&p, bytes)?;
+        paths.push(p);
+    }
+    Ok(paths)
+}
+
+/// Check a figure description and work out the plot window (data ranges). Errors name the offending field.
+pub(crate) fn plot_window(fig: &Figure) -> Result<geom::Window> {
+    let check_range = |name: &str, r: (f64, f64)| -> Result<()> {
+        if r.0.is_finite() && r.1.is_finite() && r.0 < r.1 {
+            Ok(())
+        } else {
+            Err(Error::input(format!("figure {name} ({}, {}) is not an increasing pair of finite numbers", r.0, r.1))
+                .with_hint(format!("give {name} as (low, high) with low < high, or leave it out to fit the data")))
+        }
+    };
+    if let Some(r) = fig.x_range {
+        check_range("x_range", r)?;
+    }
+    if let Some(r) = fig.y_range {
+        check_range("y_range", r)?;
+    }
+    if let Some(m) = &fig.categories {
+        check_range("category map x extent", (m.x.0, m.x.1))?;
+        check_range("category map y extent", (m.y.0, m.y.1))?;
+        if m.x.2 == 0 || m.y.2 == 0 || m.cells.len() != m.x.2 * m.y.2 {
+            return Err(Error::input(format!(
+                "category map has {} cells but its grid is {} x {}",
+                m.cells.len(),
+                m.x.2,
+                m.y.2
+            ))
+            .with_hint("cells must hold one entry per grid cell, row-major with y outer"));
+        }
+        if let Some(bad) = m.cells.iter().find(|&&c| c as usize >= m.categories.len()) {
+            return Err(Error::input(format!(
+                "category map cell value {bad} has no category (only {} named)",
+                m.categories.len()
+            ))
+            .with_hint("add a (name, colour) entry for every value used in cells"));
+        }
+    }
+    let mut xs: Vec<f64> = Vec::new();
+    let mut ys: Vec<f64> = Vec::new();
+    for s in &fig.series {
+        for &(x, y) in &s.points {
+            if x.is_finite() && y.is_finite() {
+                xs.push(x);
+                ys.push(y);
+            }
+        }
+    }
+    for b in &fig.bands {
+        match b {
+            Band::XInterval { from, to, .. } => xs.extend([*from, *to]),
+            Band::Between { points, .. } => {
+                for &(x, lo, hi) in points {
+                    if x.is_finite() && lo.is_finite() && hi.is_finite() {
+                        xs.push(x);
+                        ys.extend([lo, hi]);
+                    }
+                }
+            }
+        }
+    }
+    for m in &fig.markers {
+        if m.x.is_finite() && m.y.is_finite() {
+            xs.push(m.x);
+            ys.push(m.y);
+        }
+    }
+    if let Some(m) = &fig.categories {
+        xs.extend([m.x.0, m.x.1]);
+        ys.extend([m.y.0, m.y.1]);
+    }
+    let no_data = || {
+        Error::input("the figure has no finite data to fit its axes to")
+            .with_hint("add a curve with finite points, or give x_range and y_range")
+    };
+    // A category map fixes the default window to its own extent; otherwise fit the data.
+    let (x0, x1) = match (fig.x_range, &fig.categories) {
+        (Some(r), _) => r,
+        (None, Some(m)) => (m.x.0, m.x.1),
+        (None, None) => geom::axis_range(geom::finite_span(xs.into_iter()).ok_or_else(no_data)?, 0.0),
+    };
+    let (y0, y1) = match (fig.y_range, &fig.categories) {
+        (Some(r), _) => r,
+        (None, Some(m)) => (m.y.0, m.y.1),
+        (None, None) => geom::axis_range(geom::finite_span(ys.into_iter()).ok_or_else(no_data)?, 0.05),
+    };
+    Ok(geom::Window { x0, x1, y0, y1 })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::error::ErrorKind;
+
+    fn line(points: Vec<(f64, f64)>) -> Series {
+        Series { label: "s".into(), points, style: LineStyle::Solid, colour: 0 }
+    }
+
+    #[test]
+    fn window_fits_the_data_with_vertical_padding() {
+        let fig = Figure { series: vec![line(vec![(0.0, 0.0), (1.0, f64::NAN), (2.0, 10.0)])], ..Figure::default() };
+        let w = plot_window(&fig).unwrap();
+        assert_eq!((w.x0, w.x1), (0.0, 2.0));
+        assert_eq!((w.y0, w.y1), (-0.5, 10.5));
+    }
+
+    #[test]
+    fn bad_ranges_and_maps_are_input_errors() {
+        let fig = Figure { x_range: Some((1.0, 1.0)), series: vec![line(vec![(0.0, 0.0)])], ..Figure::default() };
+        let e = plot_window(&fig).unwrap_err();
+        assert_eq!(e.kind, ErrorKind::Input);
+        assert!(e.message.contains("x_range"));
+        let map = CategoryMap { x: (0.0, 1.0, 2), y: (0.0, 1.0, 2), cells: vec![0, 0, 0], categories: vec![("a".into(), 0)] };
+        let e = plot_window(&Figure { categories: Some(map.clone()), ..Figure::default() }).unwrap_err();
+        assert!(e.message.contains("3 cells"), "{}", e.message);
+        let map = CategoryMap { cells: vec![0, 1, 0, 0], ..map };
+        let e = plot_window(&Figure { categories: Some(map), ..Figure::default() }).unwrap_err();
+        assert!(e.message.contains("value 1"), "{}", e.message);
+        let e = plot_window(&Figure { series: vec![line(vec![(f64::NAN, 1.0)])], ..Figure::default() }).unwrap_err();
+        assert_eq!(e.kind, ErrorKind::Input);
+    }
+
+    #[test]
+    fn bad_stem_is_rejected_before_rendering() {
+        let e = write_figure(&Figure::default(), Path::new("."), "a/b").unwrap_err();
+        assert_eq!(e.kind, ErrorKind::Input);
+    }
+}

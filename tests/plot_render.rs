@@ -146,8 +146,10 @@ fn nan_breaks_the_line_and_empty_series_are_fine() {
         provenance: "nan-gap".into(),
         ..Figure::default()
     };
-    // Palette colour 1 is vermillion #D55E00 (Okabe & Ito 2008).
-    let count = |svg: &str| svg.matches("<polyline").filter(|_| true).zip(svg.split("<polyline").skip(1)).filter(|(_, s)| s.split("/>").next().unwrap_or("").contains("#D55E00")).count();
+    // Paths stroked in palette colour 1, vermillion #D55E00 (Okabe & Ito 2008).
+    let count = |svg: &str| {
+        svg.split("<polyline").skip(1).filter(|el| el.split("/>").next().unwrap_or("").contains("#D55E00")).count()
+    };
     let whole = render_svg(&base(0.5)).unwrap();
     let gapped = render_svg(&base(f64::NAN)).unwrap();
     // One path for the curve plus one legend sample, against two curve pieces plus the sample.

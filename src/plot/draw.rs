@@ -77,6 +77,9 @@ fn ipt(p: (f64, f64)) -> (i32, i32) {
     (p.0.round() as i32, p.1.round() as i32)
 }
 
+/// A pixel box: left, top, right, bottom.
+type Boxed = (f64, f64, f64, f64);
+
 /// What a legend row shows beside its text.
 enum Sample {
     Line(LineStyle, usize),
@@ -157,7 +160,9 @@ pub(crate) fn draw<DB: DrawingBackend>(fig: &Figure, w: Window, backend: DB, dev
         }
     }
 
+    // What the legend should avoid: drawn curve points (fewest wins) and text labels (never cover).
     let mut occupied: Vec<(f64, f64)> = Vec::new();
+    let mut labels: Vec<Boxed> = Vec::new();
     let grey = rgb(style::GREY);
     let ref_font = font(style::LEGEND_PT).color(&grey);
     for rl in fig.ref_lines.iter().filter(|r| r.at.is_finite()) {
@@ -173,15 +178,12 @@ pub(crate) fn draw<DB: DrawingBackend>(fig: &Figure, w: Window, backend: DB, dev
                     Orientation::Vertical => ((p[1].0 + 2.0 * k, p[1].1 + 2.0 * k), Pos::new(HPos::Left, VPos::Top)),
                     Orientation::Horizontal => ((p[1].0 - 2.0 * k, p[1].1 - 1.5 * k), Pos::new(HPos::Right, VPos::Bottom)),
                 };
-                // Keep the legend off the label: mark its extent as occupied (weighted like a curve).
                 let (tw, th) = root.estimate_text_size(&rl.label, &ref_font).map_err(area_error)?;
-                let x0 = if rl.orientation == Orientation::Vertical { pos.0 } else { pos.0 - tw as f64 };
-                let y0 = if rl.orientation == Orientation::Vertical { pos.1 } else { pos.1 - th as f64 };
-                for i in 0..=8 {
-                    for j in 0..=2 {
-                        occupied.push((x0 + tw as f64 * i as f64 / 8.0, y0 + th as f64 * j as f64 / 2.0));
-                    }
-                }
+                let (tw, th) = (tw as f64, th as f64);
+                labels.push(match rl.orientation {
+                    Orientation::Vertical => (pos.0, pos.1, pos.0 + tw, pos.1 + th),
+                    Orientation::Horizontal => (pos.0 - tw, pos.1 - th, pos.0, pos.1),
+                });
                 root.draw(&Text::new(rl.label.clone(), ipt(pos), ref_font.pos(anchor))).map_err(area_error)?;
             }
         }
@@ -215,16 +217,20 @@ pub(crate) fn draw<DB: DrawingBackend>(fig: &Figure, w: Window, backend: DB, dev
         }
         if !m.label.is_empty() {
             let pos = (c.0 + (style::MARKER_PT + 1.5) * k, c.1 - (style::MARKER_PT + 0.5) * k);
+            let (tw, th) = root.estimate_text_size(&m.label, &label_font).map_err(area_error)?;
+            labels.push((pos.0, pos.1 - th as f64, pos.0 + tw as f64, pos.1));
             root.draw(&Text::new(m.label.clone(), ipt(pos), label_font.pos(Pos::new(HPos::Left, VPos::Bottom))))
                 .map_err(area_error)?;
         }
     }
 
-    // Full frame around the plot area (a closed path: the SVG backend ignores stroke widths of rectangles).
-    let frame = [(plot.0, plot.1), (plot.2, plot.1), (plot.2, plot.3), (plot.0, plot.3), (plot.0, plot.1)];
+    // Full frame around the plot area (a closed path: the SVG backend ignores stroke widths of rectangles),
+    // its left and bottom sides on top of the axis lines, which plotters draws one pixel outside the area.
+    let (fl, fb) = (plot.0 - 1.0, plot.3 + 1.0);
+    let frame = [(fl, plot.1), (plot.2, plot.1), (plot.2, fb), (fl, fb), (fl, plot.1)];
     stroke(&root, &frame, &[], rgb((0, 0, 0)), px(style::FRAME_PT))?;
 
-    legend(&root, fig, &map, &occupied, dev)?;
+    legend(&root, fig, &map, (&occupied, &labels), dev)?;
     root.present().map_err(area_error)?;
     Ok(layout)
 }
@@ -312,12 +318,13 @@ fn paint_map<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, m: &super::Categ
     root.draw(&elem).map_err(area_error)
 }
 
-/// The legend: a framed box in the corner of the plot area that covers the fewest drawn points.
+/// The legend: a framed box at the corner (or edge centre) of the plot area that hides no text label and
+/// covers the fewest drawn curve points.
 fn legend<DB: DrawingBackend>(
     root: &DrawingArea<DB, Shift>,
     fig: &Figure,
     map: &Mapper,
-    occupied: &[(f64, f64)],
+    (occupied, labels): (&[(f64, f64)], &[Boxed]),
     dev: &Device,
 ) -> Result<()> {
     let mut rows: Vec<(String, Sample)> = Vec::new();
@@ -358,9 +365,13 @@ fn legend<DB: DrawingBackend>(
         (l + inset, t + inset),
         (r - inset - bw, b - inset - bh),
         (l + inset, b - inset - bh),
+        (0.5 * (l + r - bw), t + inset),
+        (0.5 * (l + r - bw), b - inset - bh),
     ];
     let cover = |(x, y): (f64, f64)| {
-        occupied.iter().filter(|p| p.0 >= x && p.0 <= x + bw && p.1 >= y && p.1 <= y + bh).count()
+        let points = occupied.iter().filter(|p| p.0 >= x && p.0 <= x + bw && p.1 >= y && p.1 <= y + bh).count();
+        let hidden = labels.iter().filter(|l| l.0 < x + bw && l.2 > x && l.1 < y + bh && l.3 > y).count();
+        points + 1_000_000 * hidden
     };
     let (x, y) = corners.iter().copied().min_by_key(|&c| cover(c)).unwrap_or(corners[0]);
     let edge_colour = rgb((0x99, 0x99, 0x99));

@@ -4,6 +4,7 @@ mod check;
 mod common;
 mod derive;
 mod map;
+mod report;
 mod statics;
 
 use clap::{Parser, Subcommand};
@@ -33,6 +34,10 @@ enum Command {
     Map(map::MapArgs),
     /// Join the part files of a sharded map into exactly what the unsharded run writes.
     Merge(map::MergeArgs),
+    /// Everything a paper draft needs for one scenario in one folder: formulas, tables, figures, data.
+    Report(report::ReportArgs),
+    /// Run the whole pipeline on the bundled demo scenarios.
+    Demo(report::DemoArgs),
 }
 
 /// Run the program; returns the process exit code.
@@ -53,6 +58,8 @@ pub fn run() -> i32 {
         Command::Sweep(a) => statics::run_sweep(a),
         Command::Map(a) => map::run(a),
         Command::Merge(a) => map::run_merge(a),
+        Command::Report(a) => report::run_report(a),
+        Command::Demo(a) => report::run_demo(a),
     };
     match result {
         Ok(()) => 0,

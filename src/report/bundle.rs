@@ -34,7 +34,7 @@ pub fn plot_range(s: &Scenario) -> Option<(f64, f64)> {
         .iter()
         .max_by(|a, b| overlap(a.from, a.to, l, 12.0 * l).total_cmp(&overlap(b.from, b.to, l, 12.0 * l)))?;
     let from = iv.from * (1.0 + 1e-3);
-    let to = iv.to.min((from * 6.0).max(12.0 * l));
+    let to = (iv.to * (1.0 - 1e-3)).min((from * 6.0).max(12.0 * l));
     (to > from).then_some((from, to))
 }
 

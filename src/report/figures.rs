@@ -198,12 +198,23 @@ pub fn sigma_pressure_figure(s: &Scenario, lo: f64, hi: f64) -> Figure {
         }
         out
     };
+    // A robust vertical range: sigma0 and p0 diverge at horizons, so use the 3rd to 97th percentiles.
+    let mut vals: Vec<f64> = sig.iter().chain(pre.iter()).map(|p| p.1).filter(|v| v.is_finite()).collect();
+    vals.sort_by(|a, b| a.total_cmp(b));
+    let y_range = if vals.len() > 10 {
+        let (a, b) = (vals[vals.len() * 3 / 100], vals[vals.len() * 97 / 100]);
+        let pad = 0.15 * (b - a).max(1e-12);
+        Some(((a - pad).min(-pad * 0.1), (b + pad).max(pad * 0.1)))
+    } else {
+        None
+    };
     let mut bands = intervals(&wec, "weak EC holds", 3);
     bands.extend(intervals(&dec, "dominant EC holds", 6));
     Figure {
         x_label: "a/M".into(),
         y_label: "σ₀, p₀ (units of 1/M)".into(),
         x_range: Some((lo, hi)),
+        y_range,
         series: vec![
             Series { label: "σ₀(a)".into(), points: sig, style: LineStyle::Solid, colour: 0 },
             Series { label: "p₀(a)".into(), points: pre, style: LineStyle::Dashed, colour: 5 },

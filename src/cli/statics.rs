@@ -41,8 +41,10 @@ pub fn run_statics(a: StaticsArgs) -> Result<()> {
     let s = a.scenario.load()?;
     let (lo, hi) = range(a.from, a.to, default_range(&s))?;
     let rep = find_static_radii(&s, lo, hi, &StaticsOptions::default())?;
-    for n in &rep.notes {
-        warn(n);
+    if a.format != Fmt::Text {
+        for n in &rep.notes {
+            warn(n);
+        }
     }
     match a.format {
         Fmt::Json => print_stdout(&to_json(&rep)),
@@ -97,8 +99,10 @@ pub fn run_tune(a: TuneArgs) -> Result<()> {
         }
         tune_at_radius(&s, &a.solve, r, within, &opts)?
     };
-    for n in &rep.notes {
-        warn(n);
+    if a.format == Fmt::Json {
+        for n in &rep.notes {
+            warn(n);
+        }
     }
     match a.format {
         Fmt::Json => print_stdout(&ex::tune_json(&rep)),
@@ -134,8 +138,10 @@ pub fn run_sweep(a: SweepArgs) -> Result<()> {
     }
     let (lo, hi) = range(a.from, a.to, default_range(&s))?;
     let rep = sweep(&s, &axis.name, &axis.values(), lo, hi, &StaticsOptions::default())?;
-    for n in &rep.notes {
-        warn(n);
+    if a.format != Fmt::Text {
+        for n in &rep.notes {
+            warn(n);
+        }
     }
     match a.format {
         Fmt::Json => print_stdout(&to_json(&rep)),

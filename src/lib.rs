@@ -29,9 +29,11 @@
 
 pub mod error;
 pub mod expr;
+pub mod geodesic;
 pub mod metric;
 pub mod output;
 pub mod roots;
 pub mod scenario;
+pub mod units;
 
 pub use error::{Error, ErrorKind, Result};

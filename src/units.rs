@@ -149,7 +149,7 @@ impl Length {
         match (self, unit) {
             (Length::Geometric(g), _) => Ok(*g),
             (Length::Metres(m), Some(u)) => Ok(u.from_m(*m)),
-            (Length::Metres(m), None) => Err(Error::input(format!("a length of {m} m needs a mass unit"))
+            (Length::Metres(m), None) => Err(Error::input(format!("a length of {m:e} m needs a mass unit"))
                 .with_hint("give --mass (e.g. --mass 1Msun) or a length in geometric units, e.g. 1e-3M")),
         }
     }

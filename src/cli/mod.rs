@@ -1,7 +1,9 @@
 //! The command-line program: argument parsing (clap), one file per command, errors mapped to exit codes.
 
+mod chain;
 mod check;
 mod common;
+mod geodesic;
 
 use clap::{Parser, Subcommand};
 
@@ -17,6 +19,10 @@ pub struct Cli {
 enum Command {
     /// Validate a scenario and survey each side: horizons, R-/T-regions, circular photon orbits.
     Check(check::Args),
+    /// A radial test particle or light ray crossing the shell: energies, Lorentz factor, orbits on each side.
+    Geodesic(geodesic::Args),
+    /// Iterate shell crossings over a chain file and track the orbit's approach to the horizon.
+    Chain(chain::Args),
 }
 
 /// Run the program; returns the process exit code.
@@ -31,6 +37,8 @@ pub fn run() -> i32 {
     };
     let result = match cli.command {
         Command::Check(a) => check::run(a),
+        Command::Geodesic(a) => geodesic::run(a),
+        Command::Chain(a) => chain::run(a),
     };
     match result {
         Ok(()) => 0,

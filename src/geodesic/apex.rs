@@ -175,6 +175,12 @@ fn series_apex(fns: &SideFns, energy_sq: f64, h: f64, quad: &QuadOptions) -> Res
             break;
         }
     }
+    if delta.is_finite() && delta < 1e-280 * h && energy_sq > 0.0 {
+        return Err(Error::numerical(format!(
+            "r_max - r_h = {delta:e} (E^2 = {energy_sq:e}) is below the range of f64 numbers"
+        ))
+        .with_hint("the orbit hugs the horizon closer than f64 can carry; stop the chain earlier (--crossings)"));
+    }
     if !(delta.is_finite() && delta >= 0.0) {
         return Err(Error::numerical(format!("near-horizon series for the apex failed at r_h = {h}")));
     }

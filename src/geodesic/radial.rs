@@ -77,7 +77,9 @@ impl<'a> Radial<'a> {
             Some((d.re - e2, d.eps))
         };
         let g: Option<&fn(f64) -> Option<(f64, f64)>> = None;
-        find_roots(&f, g, lo, hi, opts).roots.into_iter().map(|r| r.x).collect()
+        // Where A is constant and equal to E^2 (e.g. E = 1 in flat space) every radius is a root with zero slope:
+        // the particle rests there and has no turning point.
+        find_roots(&f, g, lo, hi, opts).roots.into_iter().filter(|r| r.slope != 0.0).map(|r| r.x).collect()
     }
 
     /// Refuse an interval on which the motion is not real (a turning point strictly inside it).

@@ -83,7 +83,7 @@ fn chain_demo_reaches_a_planck_length_and_writes_files() {
     let got_m = row["areal_distance_m"].as_f64().unwrap();
     assert!((got_m / (delta * 1476.625) - 1.0).abs() < 1e-5);
     // First crossing with the apex within one Planck length (1.616255e-35 m, CODATA 2018) in areal radius.
-    let lp = 1.616255e-35 / 1476.625_038;
+    let lp = 1.616255e-35 / 1476.625038;
     let first = (1..=300).find(|&k| {
         let e2 = 0.81 * 0.8f64.powi(k);
         2.0 * 0.9f64.powi(k) * e2 / (1.0 - e2) <= lp

@@ -20,6 +20,9 @@ use crate::roots::{find_roots, RootOptions};
 use num_dual::{Dual3, Dual64};
 use serde::Serialize;
 
+/// No second-derivative helper for the root finder (only simple roots matter here).
+type NoCurvature = fn(f64) -> Option<(f64, f64)>;
+
 /// Below this ratio (r_max - r_h)/r_h the near-horizon series is used.
 pub const SERIES_MAX: f64 = 1e-5;
 
@@ -70,7 +73,7 @@ fn polish(fns: &SideFns, target: f64, mut r: f64) -> (f64, f64) {
 
 fn roots_of_a(fns: &SideFns, lo: f64, hi: f64, opts: &RootOptions) -> Vec<(f64, f64)> {
     let f = |r: f64| Some(a_and_slope(fns, r));
-    let g: Option<&fn(f64) -> Option<(f64, f64)>> = None;
+    let g: Option<&NoCurvature> = None;
     find_roots(&f, g, lo, hi, opts).roots.into_iter().map(|r| polish(fns, 0.0, r.x)).collect()
 }
 
@@ -119,7 +122,7 @@ pub fn max_radius(
         let (a, s) = a_and_slope(fns, r);
         Some((a - energy_sq, s))
     };
-    let g: Option<&fn(f64) -> Option<(f64, f64)>> = None;
+    let g: Option<&NoCurvature> = None;
     let scan = find_roots(&f, g, from, hi, roots);
     let Some(turn) = scan.roots.iter().find(|r| r.slope > 0.0) else { return Ok(None) };
     let rmax = polish(fns, energy_sq, turn.x).0;

@@ -38,7 +38,9 @@ pub struct Quad {
     pub intervals: usize,
 }
 
-// Kronrod nodes (positive half, descending) and weights; Gauss weights for the odd-indexed nodes.
+// Kronrod nodes (positive half, descending) and weights; Gauss weights for the odd-indexed nodes. The digits
+// are kept as published.
+#[allow(clippy::excessive_precision)]
 const XGK: [f64; 8] = [
     0.991_455_371_120_812_639_206_854_697_526_329,
     0.949_107_912_342_758_524_526_189_684_047_851,
@@ -49,6 +51,7 @@ const XGK: [f64; 8] = [
     0.207_784_955_007_898_467_600_689_403_773_245,
     0.0,
 ];
+#[allow(clippy::excessive_precision)]
 const WGK: [f64; 8] = [
     0.022_935_322_010_529_224_963_732_008_058_970,
     0.063_092_092_629_978_553_290_700_663_189_204,
@@ -59,6 +62,7 @@ const WGK: [f64; 8] = [
     0.204_432_940_075_298_892_414_161_999_234_649,
     0.209_482_141_084_727_828_012_999_174_891_714,
 ];
+#[allow(clippy::excessive_precision)]
 const WG: [f64; 4] = [
     0.129_484_966_168_869_693_270_611_432_679_082,
     0.279_705_391_489_276_667_901_467_771_423_780,
@@ -153,6 +157,7 @@ pub fn integrate_sqrt_ends_by_offset<F: Fn(bool, f64) -> f64>(f: &F, a: f64, b: 
 /// 1964, table 25.4). With g = f' this is (f(start + x) - f(start))/x without cancellation, exact to (x/L)^10
 /// for a function varying on a scale L.
 pub fn mean_over<F: Fn(f64) -> f64>(g: &F, start: f64, x: f64) -> f64 {
+    #[allow(clippy::excessive_precision)]
     const NODES: [(f64, f64); 5] = [
         (0.0, 0.568_888_888_888_888_9),
         (0.538_469_310_105_683_1, 0.478_628_670_499_366_5),

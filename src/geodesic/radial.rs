@@ -13,6 +13,9 @@ use crate::metric::SideFns;
 use crate::roots::{find_roots, RootOptions};
 use serde::Serialize;
 
+/// No second-derivative helper for the root finder (only simple roots matter here).
+type NoCurvature = fn(f64) -> Option<(f64, f64)>;
+
 /// Timelike (massive) or null (light) test particle.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "lowercase")]
@@ -76,7 +79,7 @@ impl<'a> Radial<'a> {
             let d: num_dual::Dual64 = self.fns.a(num_dual::Dual64::new(r, 1.0));
             Some((d.re - e2, d.eps))
         };
-        let g: Option<&fn(f64) -> Option<(f64, f64)>> = None;
+        let g: Option<&NoCurvature> = None;
         // Where A is constant and equal to E^2 (e.g. E = 1 in flat space) every radius is a root with zero slope:
         // the particle rests there and has no turning point.
         find_roots(&f, g, lo, hi, opts).roots.into_iter().filter(|r| r.slope != 0.0).map(|r| r.x).collect()
@@ -160,7 +163,7 @@ impl<'a> Radial<'a> {
             let d: num_dual::Dual64 = self.fns.a(num_dual::Dual64::new(r, 1.0));
             Some((d.re, d.eps))
         };
-        let g: Option<&fn(f64) -> Option<(f64, f64)>> = None;
+        let g: Option<&NoCurvature> = None;
         if let Some(h) = find_roots(&a_root, g, lo.max(1e-12 * hi), hi, roots).roots.first() {
             return Err(Error::numerical(format!(
                 "the coordinate time from r = {r1} to r = {r2} diverges: A = 0 (a horizon) at r = {}",

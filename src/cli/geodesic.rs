@@ -34,10 +34,10 @@ pub struct Args {
     #[command(flatten)]
     scenario: ScenarioArgs,
     /// Shell radius R at the crossing (geometric units).
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     radius: f64,
     /// Killing energy E = -u_t on the minus side (per unit mass for a particle).
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     energy: f64,
     /// A light ray instead of a massive particle.
     #[arg(long)]

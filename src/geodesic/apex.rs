@@ -185,7 +185,9 @@ fn series_apex(fns: &SideFns, energy_sq: f64, h: f64, quad: &QuadOptions) -> Res
         .with_hint("the orbit hugs the horizon closer than f64 can carry; stop the chain earlier (--crossings)"));
     }
     if !(delta.is_finite() && delta >= 0.0) {
-        return Err(Error::numerical(format!("near-horizon series for the apex failed at r_h = {h}")));
+        return Err(Error::numerical(format!(
+            "near-horizon series for the apex failed at r_h = {h:e} (derivatives of A out of f64 range?)"
+        )));
     }
     let f = |x: f64| 2.0 * delta.sqrt() / (b[1] + b[2] * delta * x * x + b[3] * delta * delta * x.powi(4)).sqrt();
     let q = integrate(&f, 0.0, 1.0, quad);

@@ -153,6 +153,10 @@ pub fn cross(scenario: &Scenario, params: &[f64], req: &CrossingRequest) -> Resu
                     .with_hint("a spacelike shell r = R needs a T-region (inside a horizon) on both sides"));
                 }
             }
+            if req.direction.is_some() {
+                return Err(Error::input("a direction was given for a spacelike shell")
+                    .with_hint("inside a horizon the direction of r is fixed by the future (keep = black-hole/white-hole); drop --direction"));
+            }
             if req.particle == Particle::Null && req.energy_minus == 0.0 {
                 return Err(Error::input("a radial light ray inside a horizon needs E != 0 (E = 0 gives k = 0)")
                     .with_hint("give a nonzero --energy"));

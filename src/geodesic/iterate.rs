@@ -240,4 +240,16 @@ multiply = {{ m = {lambda} }}
         assert!(run.rows[first - 1].apex.unwrap().areal_distance.unwrap() <= 1e-38);
         assert!(run.rows[first - 2].apex.unwrap().areal_distance.unwrap() > 1e-38);
     }
+
+    #[test]
+    fn mismatched_consecutive_stages_are_warned_about() {
+        // Without [cycle] multiply the plus side (mass 0.9) of one pass differs from the next minus side (mass 1).
+        let mut chain = bounce(0.9, 0.9, 1.0, 3);
+        chain.multiply.clear();
+        let run = run_chain(&chain, 3, None).unwrap();
+        assert_eq!(run.warnings.len(), 1, "{:?}", run.warnings);
+        assert!(run.warnings[0].contains("differ"));
+        let ok = run_chain(&bounce(0.9, 0.9, 1.0, 3), 3, None).unwrap();
+        assert!(ok.warnings.is_empty(), "{:?}", ok.warnings);
+    }
 }

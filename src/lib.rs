@@ -31,6 +31,7 @@ pub mod error;
 pub mod export;
 pub mod expr;
 pub mod junction;
+pub mod geodesic;
 pub mod metric;
 pub mod output;
 pub mod plot;
@@ -39,5 +40,6 @@ pub mod roots;
 pub mod scan;
 pub mod scenario;
 pub mod statics;
+pub mod units;
 
 pub use error::{Error, ErrorKind, Result};

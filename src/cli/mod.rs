@@ -1,11 +1,13 @@
 //! The command-line program: argument parsing (clap), one file per command, errors mapped to exit codes.
 
+mod chain;
 mod check;
 mod common;
 mod derive;
 mod map;
 mod report;
 mod statics;
+mod geodesic;
 
 use clap::{Parser, Subcommand};
 
@@ -38,6 +40,10 @@ enum Command {
     Report(report::ReportArgs),
     /// Run the whole pipeline on the bundled demo scenarios.
     Demo(report::DemoArgs),
+    /// A radial test particle or light ray crossing the shell: energies, Lorentz factor, orbits on each side.
+    Geodesic(geodesic::Args),
+    /// Iterate shell crossings over a chain file and track the orbit's approach to the horizon.
+    Chain(chain::Args),
 }
 
 /// Run the program; returns the process exit code.
@@ -60,6 +66,8 @@ pub fn run() -> i32 {
         Command::Merge(a) => map::run_merge(a),
         Command::Report(a) => report::run_report(a),
         Command::Demo(a) => report::run_demo(a),
+        Command::Geodesic(a) => geodesic::run(a),
+        Command::Chain(a) => chain::run(a),
     };
     match result {
         Ok(()) => 0,

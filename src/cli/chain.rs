@@ -1,0 +1,186 @@
+//! `junctura chain`: iterate the crossing map over a chain of shells and report the orbit after each crossing.
+
+use super::common::to_json;
+use clap::ValueEnum;
+use junctura::geodesic::{chain_csv, chain_series, run_chain, Chain, ChainRow, ChainRun, Series};
+use junctura::output::{ensure_dir, print_stdout, warn, write_atomic};
+use junctura::units::{parse_length, parse_mass, Length, MassUnit, PLANCK_LENGTH_M};
+use junctura::Result;
+use serde::Serialize;
+use std::path::PathBuf;
+
+/// Output format of `chain`.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum ChainFormat {
+    /// Readable table.
+    Text,
+    /// One JSON object.
+    Json,
+    /// CSV table (provenance comment, header with units).
+    Csv,
+}
+
+/// Arguments of `chain`.
+#[derive(clap::Args, Debug)]
+pub struct Args {
+    /// Chain file (TOML).
+    file: PathBuf,
+    /// Number of crossings (default: the file's `crossings`).
+    #[arg(long)]
+    crossings: Option<usize>,
+    /// Mass unit M of the geometric units, e.g. 1Msun, 1e30kg, 2.5e-8kg (adds lengths in metres).
+    #[arg(long)]
+    mass: Option<String>,
+    /// Report the first crossing whose orbit comes within this distance of the horizon, e.g. 1lP, 1e-30m,
+    /// 1e-3M (default with --mass: one Planck length).
+    #[arg(long)]
+    within: Option<String>,
+    /// Output format on stdout.
+    #[arg(long, value_enum, default_value_t = ChainFormat::Text)]
+    format: ChainFormat,
+    /// Also write <name>.csv and <name>.json into this folder.
+    #[arg(long)]
+    out: Option<PathBuf>,
+}
+
+#[derive(Serialize)]
+struct Row<'a> {
+    #[serde(flatten)]
+    row: &'a ChainRow,
+    areal_distance_m: Option<f64>,
+    proper_distance_m: Option<f64>,
+}
+
+#[derive(Serialize)]
+struct Report<'a> {
+    chain: &'a str,
+    provenance: String,
+    crossings: usize,
+    mass_kg: Option<f64>,
+    mass_solar: Option<f64>,
+    length_unit_m: Option<f64>,
+    threshold: Option<f64>,
+    threshold_m: Option<f64>,
+    first_within_areal: Option<usize>,
+    first_within_proper: Option<usize>,
+    warnings: &'a [String],
+    rows: Vec<Row<'a>>,
+    series: Vec<Series>,
+}
+
+pub fn run(args: Args) -> Result<()> {
+    let chain = Chain::load(&args.file)?;
+    let crossings = args.crossings.unwrap_or(chain.crossings);
+    if crossings == 0 {
+        return Err(junctura::Error::input("--crossings 0: nothing to do").with_hint("give --crossings N with N >= 1"));
+    }
+    let unit = match &args.mass {
+        Some(m) => Some(MassUnit::new(parse_mass(m)?)?),
+        None => None,
+    };
+    let within = match (&args.within, &unit) {
+        (Some(w), _) => Some(parse_length(w)?),
+        (None, Some(_)) => Some(Length::Metres(PLANCK_LENGTH_M)),
+        (None, None) => None,
+    };
+    let threshold = within.map(|w| w.geometric(unit.as_ref())).transpose().map_err(|e| e.context("--within"))?;
+    let run = run_chain(&chain, crossings, threshold)?;
+    for w in &run.warnings {
+        warn(w);
+    }
+    let mut provenance = format!("{} | crossings {crossings}", chain.provenance());
+    if let (Some(m), Some(u)) = (&args.mass, &unit) {
+        provenance.push_str(&format!(" | mass {m} = {:.6e} kg, G M/c^2 = {:.9e} m", u.kg(), u.length_m()));
+    }
+    let report = report(&chain, &run, crossings, unit.as_ref(), provenance.clone());
+    let csv = chain_csv(&run, &provenance, unit.as_ref());
+    let json = to_json(&report);
+    if let Some(dir) = &args.out {
+        ensure_dir(dir)?;
+        let stem = args.file.file_stem().map(|s| s.to_string_lossy().to_string()).unwrap_or_else(|| "chain".into());
+        for (ext, body) in [("csv", &csv), ("json", &json)] {
+            let p = dir.join(format!("{stem}.{ext}"));
+            write_atomic(&p, body.as_bytes())?;
+            eprintln!("wrote {}", p.display());
+        }
+    }
+    match args.format {
+        ChainFormat::Json => print_stdout(&json),
+        ChainFormat::Csv => print_stdout(&csv),
+        ChainFormat::Text => print_stdout(&text(&report, unit.is_some())),
+    }
+    Ok(())
+}
+
+fn report<'a>(chain: &'a Chain, run: &'a ChainRun, crossings: usize, unit: Option<&MassUnit>, provenance: String) -> Report<'a> {
+    let to_m = |v: Option<f64>| unit.and_then(|u| v.map(|d| u.to_m(d)));
+    let rows = run
+        .rows
+        .iter()
+        .map(|row| Row {
+            row,
+            areal_distance_m: to_m(row.apex.and_then(|a| a.areal_distance)),
+            proper_distance_m: to_m(row.apex.and_then(|a| a.proper_distance)),
+        })
+        .collect();
+    Report {
+        chain: &chain.name,
+        provenance,
+        crossings,
+        mass_kg: unit.map(|u| u.kg()),
+        mass_solar: unit.map(|u| u.solar_masses()),
+        length_unit_m: unit.map(|u| u.length_m()),
+        threshold: run.threshold,
+        threshold_m: to_m(run.threshold),
+        first_within_areal: run.first_within_areal,
+        first_within_proper: run.first_within_proper,
+        warnings: &run.warnings,
+        rows,
+        series: chain_series(run, unit),
+    }
+}
+
+fn e(v: Option<f64>) -> String {
+    v.map(|x| format!("{x:.6e}")).unwrap_or_else(|| "-".into())
+}
+
+fn text(r: &Report, si: bool) -> String {
+    let mut o = format!("chain: {}\n{}\n", r.chain, r.provenance);
+    if let Some(l) = r.length_unit_m {
+        o.push_str(&format!("lengths in units of G M/c^2 = {l:.9e} m (and in m)\n"));
+    }
+    o.push_str(&format!("\n{:>6} {:>5} {:>13} {:>13} {:>13} {:>13}", "cross", "stage", "E_plus", "r_max-r_h", "proper", "Lorentz"));
+    if si {
+        o.push_str(&format!(" {:>13} {:>13}", "r_max-r_h[m]", "proper[m]"));
+    }
+    o.push('\n');
+    for row in &r.rows {
+        let a = row.row.apex;
+        o.push_str(&format!(
+            "{:>6} {:>5} {:>13} {:>13} {:>13} {:>13}",
+            row.row.crossing,
+            row.row.stage,
+            e(row.row.energy_plus),
+            e(a.and_then(|a| a.areal_distance)),
+            e(a.and_then(|a| a.proper_distance)),
+            e(row.row.relative_lorentz_factor)
+        ));
+        if si {
+            o.push_str(&format!(" {:>13} {:>13}", e(row.areal_distance_m), e(row.proper_distance_m)));
+        }
+        if row.row.status != "bounded" {
+            o.push_str(&format!("  {}", row.row.status));
+        }
+        o.push('\n');
+    }
+    if let Some(t) = r.threshold {
+        let tm = r.threshold_m.map(|m| format!(" = {m:.6e} m")).unwrap_or_default();
+        let say = |v: Option<usize>| v.map(|k| format!("after crossing {k}")).unwrap_or_else(|| "not within these crossings".into());
+        o.push_str(&format!(
+            "\nwithin {t:.6e} M{tm} of the horizon: areal {}, proper {}\n",
+            say(r.first_within_areal),
+            say(r.first_within_proper)
+        ));
+    }
+    o
+}

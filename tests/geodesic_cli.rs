@@ -97,6 +97,10 @@ fn chain_demo_reaches_a_planck_length_and_writes_files() {
     assert_eq!(csv.lines().count(), 302);
     let j: serde_json::Value = serde_json::from_str(&std::fs::read_to_string(Path::new(out_dir).join("bounce-chain.json")).unwrap()).unwrap();
     assert_eq!(j["rows"].as_array().unwrap().len(), 300);
+    // The figure of the approach to the horizon, in all three formats.
+    for ext in ["svg", "pdf", "png"] {
+        assert!(Path::new(out_dir).join(format!("bounce-chain_chain_distance.{ext}")).exists(), "{ext}");
+    }
 }
 
 #[test]

@@ -103,6 +103,18 @@ pub fn run(args: Args) -> Result<()> {
             write_atomic(&p, body.as_bytes())?;
             eprintln!("wrote {}", p.display());
         }
+        let thr_plot = match (threshold, unit.as_ref()) {
+            (Some(t), Some(u)) => Some(u.to_m(t)),
+            (t, _) => t,
+        };
+        for (name, fig) in junctura::report::figures::chain_figures(&report.series, thr_plot, &provenance) {
+            if fig.series.iter().all(|s| s.points.iter().all(|p| !p.1.is_finite())) {
+                continue;
+            }
+            for p in junctura::plot::write_figure(&fig, dir, &format!("{stem}_{name}"))? {
+                eprintln!("wrote {}", p.display());
+            }
+        }
     }
     match args.format {
         ChainFormat::Json => print_stdout(&json),

@@ -14,10 +14,17 @@
 pub mod ast;
 pub mod eval;
 pub mod parse;
+pub mod print;
+pub mod symbolic;
+pub mod tape;
+mod jets;
 
 pub use ast::{BinOp, Func, Node};
 pub use eval::Scalar;
 pub use parse::ParseError;
+pub use print::{latex_of, name_latex, text_of};
+pub use symbolic::{derivative, simplify};
+pub use tape::Tape;
 
 use num_dual::{Dual3, Dual64};
 use std::sync::Arc;
@@ -100,6 +107,29 @@ impl Expr {
         let ps: Vec<Dual64> =
             params.iter().enumerate().map(|(j, &v)| Dual64::new(v, if j == k { 1.0 } else { 0.0 })).collect();
         self.eval(Dual64::from(x), &ps).eps
+    }
+
+    /// The simplified derivative with respect to the variable, as a new expression with the same names (its
+    /// source text is the printed derivative). See [`symbolic::derivative`] for the rules.
+    pub fn derivative(&self) -> Expr {
+        self.with_node(simplify(&derivative(&self.node)))
+    }
+
+    /// The same function in simplified form (see [`symbolic::simplify`]); the source text is the printed
+    /// simplified tree.
+    pub fn simplified(&self) -> Expr {
+        self.with_node(simplify(&self.node))
+    }
+
+    /// Compile into a flat instruction tape for fast repeated evaluation (see [`Tape`]).
+    pub fn tape(&self) -> Tape {
+        Tape::compile(&self.node)
+    }
+
+    fn with_node(&self, node: Node) -> Expr {
+        let mut e = Expr { source: String::new(), var: self.var.clone(), params: self.params.clone(), node };
+        e.source = e.to_text();
+        e
     }
 
     /// True if the expression depends on its variable.

@@ -18,6 +18,8 @@ pub mod print;
 pub mod symbolic;
 pub mod tape;
 mod jets;
+#[cfg(test)]
+mod testgen;
 
 pub use ast::{BinOp, Func, Node};
 pub use eval::Scalar;

@@ -65,7 +65,12 @@ impl TextPrinter<'_> {
             Node::Pi => ("pi".into(), ATOM),
             Node::Var => (self.var.to_string(), ATOM),
             Node::Param(k) => ((self.param)(*k), ATOM),
-            Node::Neg(a) => (format!("-{}", self.wrap(a, POW)), NEG),
+            Node::Neg(a) => match self.render(a) {
+                // `-(a*b)` and `(-a)*b` are the same number exactly, so the product needs no parentheses.
+                (s, PROD) => (format!("-{s}"), PROD),
+                (s, p) if p >= POW => (format!("-{s}"), NEG),
+                (s, _) => (format!("-({s})"), NEG),
+            },
             Node::Call(f, a) => (format!("{}({})", f.name(), self.wrap(a, 0)), ATOM),
             Node::Bin(op, l, r) => match op {
                 BinOp::Add | BinOp::Sub => {
@@ -191,9 +196,10 @@ impl LatexPrinter<'_> {
                 }
                 BinOp::Div => {
                     // `-c/x` parses as `(-c)/x`; print the sign in front of the fraction.
-                    let (sign, num) = match l.as_ref() {
-                        Node::Neg(x) => ("-", self.render(x).0),
-                        x => ("", self.render(x).0),
+                    let (num, p) = self.render(l);
+                    let (sign, num) = match num.strip_prefix('-') {
+                        Some(rest) if p >= PROD => ("-", rest.to_string()),
+                        _ => ("", num),
                     };
                     let prec = if sign.is_empty() { PROD } else { NEG };
                     (format!("{sign}\\frac{{{num}}}{{{}}}", self.render(r).0), prec)

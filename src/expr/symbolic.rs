@@ -201,10 +201,32 @@ impl Coef {
     }
 }
 
-/// A product `coef * prod(base^exp)` with integer exponents, bases sorted and distinct.
-type Factors = Vec<(Node, i32)>;
+/// A product `coef * prod(base^exp)`: bases sorted and distinct, exponents non-zero constants (integer,
+/// rational or decimal).
+type Factors = Vec<(Node, Coef)>;
 
-/// Variant rank for the canonical factor order: numbers, pi, parameters, the variable, calls, powers, ...
+impl Coef {
+    fn int(self) -> Option<i32> {
+        (self.d == 1.0 && is_int(self.n) && self.n.abs() <= 1.0e6).then_some(self.n as i32)
+    }
+}
+
+/// The value of a constant exponent: a number, possibly negated, or a quotient of such (`3/2` after
+/// simplification).
+fn const_exp(e: &Node) -> Option<Coef> {
+    match e {
+        Node::Num(v) => Coef::new(*v, 1.0),
+        Node::Neg(x) => const_exp(x).and_then(|c| c.mul(Coef { n: -1.0, d: 1.0 })),
+        Node::Bin(BinOp::Div, a, b) => {
+            let (a, b) = (const_exp(a)?, const_exp(b)?);
+            Coef::new(a.n * b.d, a.d * b.n)
+        }
+        _ => None,
+    }
+}
+
+/// Rank for the canonical factor order: numbers, pi, parameters, the variable, calls, then the rest; a
+/// power ranks with its base (so `m^r*log(m)`, `q^2*r`).
 fn rank(n: &Node) -> u8 {
     match n {
         Node::Num(_) => 0,
@@ -212,49 +234,71 @@ fn rank(n: &Node) -> u8 {
         Node::Param(_) => 2,
         Node::Var => 3,
         Node::Call(..) => 4,
-        Node::Bin(BinOp::Pow, ..) => 5,
+        Node::Bin(BinOp::Pow, b, _) => rank(b),
         Node::Neg(_) => 6,
         Node::Bin(..) => 7,
     }
 }
 
+fn variant(n: &Node) -> u8 {
+    match n {
+        Node::Num(_) => 0,
+        Node::Pi => 1,
+        Node::Param(_) => 2,
+        Node::Var => 3,
+        Node::Call(..) => 4,
+        Node::Neg(_) => 5,
+        Node::Bin(op, ..) => 6 + *op as u8,
+    }
+}
+
 /// A total order on trees, used to sort factors so that equal products compare equal.
 fn node_cmp(a: &Node, b: &Node) -> Ordering {
-    rank(a).cmp(&rank(b)).then_with(|| match (a, b) {
+    rank(a).cmp(&rank(b)).then_with(|| variant(a).cmp(&variant(b))).then_with(|| match (a, b) {
         (Node::Num(x), Node::Num(y)) => x.total_cmp(y),
         (Node::Param(i), Node::Param(j)) => i.cmp(j),
         (Node::Call(f, x), Node::Call(g, y)) => (*f as u8).cmp(&(*g as u8)).then_with(|| node_cmp(x, y)),
         (Node::Neg(x), Node::Neg(y)) => node_cmp(x, y),
-        (Node::Bin(o, l1, r1), Node::Bin(p, l2, r2)) => {
-            (*o as u8).cmp(&(*p as u8)).then_with(|| node_cmp(l1, l2)).then_with(|| node_cmp(r1, r2))
-        }
+        (Node::Bin(_, l1, r1), Node::Bin(_, l2, r2)) => node_cmp(l1, l2).then_with(|| node_cmp(r1, r2)),
         _ => Ordering::Equal,
     })
 }
 
-/// Flatten products, quotients, negations and integer powers of `node` (raised to `exp`) into `coef` and
+/// Flatten products, quotients, negations and constant powers of `node` (raised to `exp`) into `coef` and
 /// `out`. Returns `None` when a numeric step would divide by zero or overflow (the caller then keeps the node).
-fn collect_factors(node: &Node, exp: i32, coef: &mut Coef, out: &mut Factors) -> Option<()> {
+///
+/// Only rewrites that keep the value wherever the original is defined are made: products and signs are
+/// split only under integer powers (`(a*b)^(1/2)` is not `a^(1/2)*b^(1/2)` for negative `a`, `b`), and
+/// `(x^n)^c` with an even integer `n` and a non-integer `c` is left alone (`(x^2)^(1/2) = |x|`).
+fn collect_factors(node: &Node, exp: Coef, coef: &mut Coef, out: &mut Factors) -> Option<()> {
+    let int = exp.int();
     match node {
-        Node::Num(v) => *coef = coef.mul(Coef::new(*v, 1.0)?.powi(exp)?)?,
-        Node::Neg(a) => {
-            if exp % 2 != 0 {
+        Node::Num(v) if int.is_some() => *coef = coef.mul(Coef::new(*v, 1.0)?.powi(int?)?)?,
+        // A constant to a fractional power folds only when the result is an integer (`sqrt(4) = 2`).
+        Node::Num(v) if is_int(v.powf(exp.n / exp.d)) => *coef = coef.mul(Coef::new(v.powf(exp.n / exp.d), 1.0)?)?,
+        Node::Neg(a) if int.is_some() => {
+            if int? % 2 != 0 {
                 *coef = coef.mul(Coef { n: -1.0, d: 1.0 })?;
             }
             collect_factors(a, exp, coef, out)?;
         }
-        Node::Bin(BinOp::Mul, l, r) => {
+        Node::Bin(BinOp::Mul, l, r) if int.is_some() => {
             collect_factors(l, exp, coef, out)?;
             collect_factors(r, exp, coef, out)?;
         }
-        Node::Bin(BinOp::Div, l, r) => {
+        Node::Bin(BinOp::Div, l, r) if int.is_some() => {
             collect_factors(l, exp, coef, out)?;
-            collect_factors(r, -exp, coef, out)?;
+            collect_factors(r, Coef { n: -exp.n, d: exp.d }, coef, out)?;
         }
-        Node::Bin(BinOp::Pow, b, e) if e.as_integer().is_some() => {
-            let k = exp.checked_mul(e.as_integer()?)?;
-            collect_factors(b, k, coef, out)?;
+        Node::Bin(BinOp::Pow, b, e) if const_exp(e).is_some() => {
+            let c = const_exp(e)?;
+            if int.is_none() && c.int().is_some_and(|n| n % 2 == 0) {
+                out.push((node.clone(), exp));
+            } else {
+                collect_factors(b, exp.mul(c)?, coef, out)?;
+            }
         }
+        Node::Call(Func::Sqrt, b) => collect_factors(b, exp.mul(Coef { n: 1.0, d: 2.0 })?, coef, out)?,
         _ => out.push((node.clone(), exp)),
     }
     Some(())
@@ -264,44 +308,55 @@ fn collect_factors(node: &Node, exp: i32, coef: &mut Coef, out: &mut Factors) ->
 fn product_parts(node: &Node) -> (Coef, Factors) {
     let mut coef = Coef::ONE;
     let mut raw = Vec::new();
-    if collect_factors(node, 1, &mut coef, &mut raw).is_none() {
-        return (Coef::ONE, vec![(node.clone(), 1)]);
+    let opaque = || (Coef::ONE, vec![(node.clone(), Coef::ONE)]);
+    if collect_factors(node, Coef::ONE, &mut coef, &mut raw).is_none() {
+        return opaque();
     }
     raw.sort_by(|a, b| node_cmp(&a.0, &b.0));
     let mut merged: Factors = Vec::with_capacity(raw.len());
     for (b, e) in raw {
         match merged.last_mut() {
-            Some((last, le)) if *last == b => match le.checked_add(e) {
+            Some((last, le)) if *last == b => match le.add(e) {
                 Some(s) => *le = s,
-                None => return (Coef::ONE, vec![(node.clone(), 1)]),
+                None => return opaque(),
             },
             _ => merged.push((b, e)),
         }
     }
-    merged.retain(|(_, e)| *e != 0);
+    // sign(x)^2 = 1 for every x (sign is -1 or +1 here).
+    for (b, e) in merged.iter_mut() {
+        if let (Node::Call(Func::Sign, _), Some(n)) = (&*b, e.int()) {
+            *e = Coef { n: f64::from(n.rem_euclid(2)), d: 1.0 };
+        }
+    }
+    merged.retain(|(_, e)| e.n != 0.0);
     if coef.n == 0.0 {
         merged.clear();
     }
     (coef, merged)
 }
 
-fn power_node(base: &Node, e: i32) -> Node {
-    if e == 1 {
-        base.clone()
-    } else {
-        pow(base.clone(), Node::Num(f64::from(e)))
+/// `base^e` for a positive constant exponent: `sqrt` for one half, a quotient for other fractions.
+fn power_node(base: &Node, e: Coef) -> Node {
+    if e == Coef::ONE {
+        return base.clone();
     }
+    if e == (Coef { n: 1.0, d: 2.0 }) {
+        return Node::call(Func::Sqrt, base.clone());
+    }
+    let exp = if e.d == 1.0 { Node::Num(e.n) } else { Node::bin(BinOp::Div, Node::Num(e.n), Node::Num(e.d)) };
+    pow(base.clone(), exp)
 }
 
 /// Rebuild `coef * prod(base^exp)` as `[-](c * numerator factors) / (d * denominator factors)`.
-fn build_product(coef: Coef, factors: &[(Node, i32)]) -> Node {
+fn build_product(coef: Coef, factors: &[(Node, Coef)]) -> Node {
     if coef.n == 0.0 {
         return Node::Num(0.0);
     }
     let chain = |first: Option<Node>, positive: bool| {
         let mut acc = first;
-        for (b, e) in factors.iter().filter(|(_, e)| (*e > 0) == positive) {
-            let f = power_node(b, e.abs());
+        for (b, e) in factors.iter().filter(|(_, e)| (e.n > 0.0) == positive) {
+            let f = power_node(b, Coef { n: e.n.abs(), d: e.d });
             acc = Some(match acc {
                 None => f,
                 Some(a) => Node::bin(BinOp::Mul, a, f),
@@ -379,7 +434,7 @@ fn simplify_once(node: &Node) -> Node {
         Node::Neg(a) => normalize(Node::neg(simplify_once(a))),
         Node::Bin(BinOp::Pow, b, e) => {
             let (b, e) = (simplify_once(b), simplify_once(e));
-            if e.as_integer().is_some() {
+            if const_exp(&e).is_some() {
                 return normalize(pow(b, e));
             }
             if is_num(&b, 1.0) {
@@ -393,6 +448,7 @@ fn simplify_once(node: &Node) -> Node {
             pow(b, e)
         }
         Node::Bin(op, l, r) => normalize(Node::bin(*op, simplify_once(l), simplify_once(r))),
+        Node::Call(Func::Sqrt, a) => normalize(Node::call(Func::Sqrt, simplify_once(a))),
         Node::Call(f, a) => {
             let a = simplify_once(a);
             if let Some(v) = a.as_constant() {
@@ -411,7 +467,8 @@ fn simplify_once(node: &Node) -> Node {
 /// neutral elements (`x*1`, `x+0`, `x/1`, `x^1`, `x^0`, `0*x`, `--x`, `-(0)`), gathers each product into one
 /// rational coefficient times sorted factors with merged integer powers (`2*m*3 -> 6*m`,
 /// `a*(b/c) -> a*b/c`, `(r^2)^2 -> r^4`), pulls signs out of products (`-(a)*b -> -(a*b)`), writes
-/// `x + (-y)` as `x - y` and merges like terms (`m/r + m/r -> 2*m/r`). Sums keep their order of appearance.
+/// `x + (-y)` as `x - y` and merges like terms (`m/r + m/r -> 2*m/r`). Constant powers of the same base
+/// combine where that keeps the value (`sqrt(x)*x^(3/2)/x^3 -> 1/x`). Sums keep their order of appearance.
 pub fn simplify(node: &Node) -> Node {
     let mut cur = simplify_once(node);
     for _ in 0..8 {
@@ -423,3 +480,7 @@ pub fn simplify(node: &Node) -> Node {
     }
     cur
 }
+
+#[cfg(test)]
+#[path = "symbolic_tests.rs"]
+mod tests;

@@ -274,3 +274,7 @@ impl Expr {
         latex_of(self.node(), &name_latex(self.var()), &param)
     }
 }
+
+#[cfg(test)]
+#[path = "print_tests.rs"]
+mod tests;

@@ -133,12 +133,18 @@ fn call<const N: usize>(f: Func, a: &[f64], dst: &mut [f64], n: usize) {
             [c, s, c, s]
         }),
         Func::Tanh => unary::<N>(a, dst, n, |u| {
-            let t = u.tanh();
-            let s = 1.0 - t * t;
-            [t, s, -2.0 * t * s, s * (6.0 * t * t - 2.0)]
+            // sech^2 from cosh, not 1 - tanh^2 (which cancels to 0 once tanh rounds to 1).
+            let (t, c) = (u.tanh(), u.cosh());
+            let s = 1.0 / (c * c);
+            [t, s, -2.0 * t * s, 4.0 * t * t * s - 2.0 * s * s]
         }),
         Func::Abs => unary::<N>(a, dst, n, |u| [sign(u) * u, sign(u), 0.0, 0.0]),
-        Func::Sign => unary::<N>(a, dst, n, |u| [sign(u), 0.0, 0.0, 0.0]),
+        // Piecewise constant: derivatives are exactly zero even where the argument's are not finite.
+        Func::Sign => {
+            for (j, &u) in a[..n].iter().enumerate() {
+                store::<N>(dst, j, [sign(u), 0.0, 0.0, 0.0]);
+            }
+        }
     }
 }
 
@@ -156,8 +162,8 @@ pub(super) fn apply_block<const N: usize>(inst: Inst, xs: &[f64], lo: &[f64], ds
             dst[..n].fill(v);
         }
         Inst::Var => {
-            for j in 0..n {
-                store::<N>(dst, j, [xs[j], 1.0, 0.0, 0.0]);
+            for (j, &x) in xs.iter().enumerate() {
+                store::<N>(dst, j, [x, 1.0, 0.0, 0.0]);
             }
         }
         Inst::Neg(a) => {

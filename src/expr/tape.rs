@@ -320,3 +320,7 @@ impl Tape {
         }
     }
 }
+
+#[cfg(test)]
+#[path = "tape_tests.rs"]
+mod tests;

@@ -39,8 +39,8 @@ fn mul(u: Jet, v: Jet) -> Jet {
 
 #[inline(always)]
 fn div(u: Jet, v: Jet) -> Jet {
-    let w0 = u[0] / v[0];
     let r = 1.0 / v[0];
+    let w0 = u[0] * r;
     let w1 = (u[1] - w0 * v[1]) * r;
     let w2 = (u[2] - 2.0 * w1 * v[1] - w0 * v[2]) * r;
     let w3 = (u[3] - 3.0 * (w2 * v[1] + w1 * v[2]) - w0 * v[3]) * r;
@@ -73,18 +73,15 @@ fn binary<const N: usize>(a: &[f64], b: &[f64], dst: &mut [f64], n: usize, op: i
     }
 }
 
-/// `u^n` and its derivatives; terms whose integer coefficient vanishes are exactly zero (no `0 * inf`).
+/// `u^n` and its derivatives for `n` outside {0, 1, 2} (the tape turns those into constants, copies and
+/// squares), from one `powi`: `p = u^(n-3)`, `u^n = p u^3`, `(u^n)' = n p u^2`, ...
 #[inline(always)]
 fn powi_jet(u: f64, n: i32) -> Jet {
     let nf = f64::from(n);
-    let c2 = nf * (nf - 1.0);
-    let c3 = c2 * (nf - 2.0);
-    [
-        u.powi(n),
-        nf * u.powi(n - 1),
-        if c2 == 0.0 { 0.0 } else { c2 * u.powi(n - 2) },
-        if c3 == 0.0 { 0.0 } else { c3 * u.powi(n - 3) },
-    ]
+    let p = u.powi(n - 3);
+    let pu = p * u;
+    let pu2 = pu * u;
+    [pu2 * u, nf * pu2, nf * (nf - 1.0) * pu, nf * (nf - 1.0) * (nf - 2.0) * p]
 }
 
 fn sign(u: f64) -> f64 {

@@ -26,7 +26,7 @@ pub use eval::Scalar;
 pub use parse::ParseError;
 pub use print::{latex_of, name_latex, text_of};
 pub use symbolic::{derivative, simplify};
-pub use tape::Tape;
+pub use tape::{Tape, TapeEval};
 
 use num_dual::{Dual3, Dual64};
 use std::sync::Arc;

@@ -177,6 +177,8 @@ fn step<T: Scalar>(inst: Inst, s: &[T], x: T, param: &impl Fn(usize) -> T) -> T 
 
 /// Tapes with at most this many slots evaluate per point on the stack (no allocation).
 const STACK_SLOTS: usize = 48;
+/// A smaller stack buffer for short tapes (less to initialise per point).
+const SMALL_SLOTS: usize = 16;
 
 /// Points per block in the batch evaluators (structure of arrays: one lane per point).
 pub(crate) const BLOCK: usize = 64;
@@ -227,7 +229,10 @@ impl Tape {
     /// numbers for derivatives). Does not allocate for tapes of up to 48 slots.
     #[inline]
     pub fn eval<T: Scalar>(&self, x: T, param: impl Fn(usize) -> T) -> T {
-        if self.insts.len() <= STACK_SLOTS {
+        if self.insts.len() <= SMALL_SLOTS {
+            let mut buf = [T::zero(); SMALL_SLOTS];
+            self.run(x, &param, &mut buf)
+        } else if self.insts.len() <= STACK_SLOTS {
             let mut buf = [T::zero(); STACK_SLOTS];
             self.run(x, &param, &mut buf)
         } else {
@@ -249,6 +254,13 @@ impl Tape {
             slots[i] = step(*inst, slots, x, param);
         }
         slots[self.out]
+    }
+
+    /// An evaluator for many points at fixed real parameters: the parameter-only instructions run once here,
+    /// each [`TapeEval::eval`] runs only the variable-dependent ones, in a buffer reused across points.
+    pub fn evaluator<T: Scalar>(&self, params: &[f64]) -> TapeEval<'_, T> {
+        let slots = self.prelude(params).into_iter().map(T::from).chain((self.n_pre..self.insts.len()).map(|_| T::zero()));
+        TapeEval { tape: self, slots: slots.collect() }
     }
 
     /// Values of the parameter-only instructions (`0..n_pre`) for real parameters; a parameter index past
@@ -324,3 +336,23 @@ impl Tape {
 #[cfg(test)]
 #[path = "tape_tests.rs"]
 mod tests;
+
+/// Per-point evaluation at fixed parameters with a reused slot buffer (see [`Tape::evaluator`]).
+#[derive(Debug, Clone)]
+pub struct TapeEval<'a, T> {
+    tape: &'a Tape,
+    slots: Vec<T>,
+}
+
+impl<T: Scalar> TapeEval<'_, T> {
+    /// The expression's value at `x` (with derivatives when `T` is a dual number seeded in `x`).
+    #[inline]
+    pub fn eval(&mut self, x: T) -> T {
+        let t = self.tape;
+        let no_param = |_: usize| T::from(f64::NAN);
+        for i in t.n_pre..t.insts.len() {
+            self.slots[i] = step(t.insts[i], &self.slots, x, &no_param);
+        }
+        self.slots[t.out]
+    }
+}

@@ -10,6 +10,20 @@
 //! assert!((df - (2.0 / 4.0 - 2.0 * 0.25 / 8.0)).abs() < 1e-15);
 //! assert!((d2f - (-4.0 / 8.0 + 6.0 * 0.25 / 16.0)).abs() < 1e-15);
 //! ```
+//!
+//! Symbolic derivatives, printing, and a compiled tape for many points:
+//!
+//! ```
+//! use junctura::expr::Expr;
+//! let params = vec!["m".to_string(), "q".to_string()];
+//! let b = Expr::parse("1 - 2*m/r + q^2/r^2", "r", &params).unwrap();
+//! assert_eq!(b.derivative().to_text(), "2*m/r^2 - 2*q^2/r^3");
+//! assert_eq!(b.to_latex(), r"1-\frac{2m}{r}+\frac{q^{2}}{r^{2}}");
+//! let xs = [2.0, 3.0, 4.0];
+//! let (mut f, mut df, mut d2f) = ([0.0; 3], [0.0; 3], [0.0; 3]);
+//! b.tape().eval_batch_d2(&xs, &[1.0, 0.5], &mut f, &mut df, &mut d2f);
+//! assert!((df[0] - (2.0 / 4.0 - 2.0 * 0.25 / 8.0)).abs() < 1e-15);
+//! ```
 
 pub mod ast;
 pub mod eval;

@@ -110,7 +110,7 @@ pub fn name_latex(name: &str) -> String {
     } else if GREEK.contains(&name) || name == "Upsilon" || name == "Omega" {
         format!("\\{name}")
     } else {
-        format!("\\mathrm{{{name}}}")
+        format!("\\mathrm{{{}}}", name.replace('_', "\\_"))
     }
 }
 

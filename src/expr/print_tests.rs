@@ -78,6 +78,7 @@ fn names_in_latex() {
         ("mass", r"\mathrm{mass}"),
         ("q", "q"),
         ("lambda_2", r"\lambda_{2}"),
+        ("a_", r"\mathrm{a\_}"),
     ];
     for (name, want) in cases {
         assert_eq!(name_latex(name), want, "{name}");

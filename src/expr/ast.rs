@@ -23,11 +23,14 @@ pub enum Func {
     Tanh,
     /// Absolute value.
     Abs,
+    /// Sign: -1 for negative arguments, +1 otherwise (so it is the derivative of `abs` everywhere, with the
+    /// right derivative at 0, matching how the evaluator differentiates `abs`).
+    Sign,
 }
 
 impl Func {
     /// Every function, in the order they are listed to users.
-    pub const ALL: [Func; 10] = [
+    pub const ALL: [Func; 11] = [
         Func::Sqrt,
         Func::Exp,
         Func::Log,
@@ -38,6 +41,7 @@ impl Func {
         Func::Cosh,
         Func::Tanh,
         Func::Abs,
+        Func::Sign,
     ];
 
     /// The name users type.
@@ -53,6 +57,7 @@ impl Func {
             Func::Cosh => "cosh",
             Func::Tanh => "tanh",
             Func::Abs => "abs",
+            Func::Sign => "sign",
         }
     }
 

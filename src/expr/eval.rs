@@ -75,5 +75,13 @@ pub fn apply<T: Scalar>(f: Func, a: T) -> T {
                 a
             }
         }
+        // Piecewise constant: all derivatives vanish (the jump at 0 is not represented).
+        Func::Sign => {
+            if a.re() < 0.0 {
+                T::from(-1.0)
+            } else {
+                T::from(1.0)
+            }
+        }
     }
 }

@@ -10,14 +10,37 @@
 //! assert!((df - (2.0 / 4.0 - 2.0 * 0.25 / 8.0)).abs() < 1e-15);
 //! assert!((d2f - (-4.0 / 8.0 + 6.0 * 0.25 / 16.0)).abs() < 1e-15);
 //! ```
+//!
+//! Symbolic derivatives, printing, and a compiled tape for many points:
+//!
+//! ```
+//! use junctura::expr::Expr;
+//! let params = vec!["m".to_string(), "q".to_string()];
+//! let b = Expr::parse("1 - 2*m/r + q^2/r^2", "r", &params).unwrap();
+//! assert_eq!(b.derivative().to_text(), "2*m/r^2 - 2*q^2/r^3");
+//! assert_eq!(b.to_latex(), r"1-\frac{2m}{r}+\frac{q^{2}}{r^{2}}");
+//! let xs = [2.0, 3.0, 4.0];
+//! let (mut f, mut df, mut d2f) = ([0.0; 3], [0.0; 3], [0.0; 3]);
+//! b.tape().eval_batch_d2(&xs, &[1.0, 0.5], &mut f, &mut df, &mut d2f);
+//! assert!((df[0] - (2.0 / 4.0 - 2.0 * 0.25 / 8.0)).abs() < 1e-15);
+//! ```
 
 pub mod ast;
 pub mod eval;
 pub mod parse;
+pub mod print;
+pub mod symbolic;
+pub mod tape;
+mod jets;
+#[cfg(test)]
+mod testgen;
 
 pub use ast::{BinOp, Func, Node};
 pub use eval::Scalar;
 pub use parse::ParseError;
+pub use print::{latex_of, name_latex, text_of};
+pub use symbolic::{derivative, simplify};
+pub use tape::{Tape, TapeEval};
 
 use num_dual::{Dual3, Dual64};
 use std::sync::Arc;
@@ -106,6 +129,29 @@ impl Expr {
         let ps: Vec<Dual64> =
             params.iter().enumerate().map(|(j, &v)| Dual64::new(v, if j == k { 1.0 } else { 0.0 })).collect();
         self.eval(Dual64::from(x), &ps).eps
+    }
+
+    /// The simplified derivative with respect to the variable, as a new expression with the same names (its
+    /// source text is the printed derivative). See [`symbolic::derivative`] for the rules.
+    pub fn derivative(&self) -> Expr {
+        self.with_node(simplify(&derivative(&self.node)))
+    }
+
+    /// The same function in simplified form (see [`symbolic::simplify`]); the source text is the printed
+    /// simplified tree.
+    pub fn simplified(&self) -> Expr {
+        self.with_node(simplify(&self.node))
+    }
+
+    /// Compile into a flat instruction tape for fast repeated evaluation (see [`Tape`]).
+    pub fn tape(&self) -> Tape {
+        Tape::compile(&self.node)
+    }
+
+    fn with_node(&self, node: Node) -> Expr {
+        let mut e = Expr { source: String::new(), var: self.var.clone(), params: self.params.clone(), node };
+        e.source = e.to_text();
+        e
     }
 
     /// True if the expression depends on its variable.

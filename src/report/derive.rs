@@ -222,7 +222,11 @@ pub fn derive(s: &Scenario, state: State) -> Result<DeriveReport> {
         v2_slope: None,
         energy_conditions: None,
         equation_of_state: None,
-        formulas: j.formulas(a_equals_b),
+        formulas: {
+            let mut f = side_formulas(s);
+            f.extend(j.formulas(a_equals_b));
+            f
+        },
         warnings: Vec::new(),
     };
     match s.shell.kind {
@@ -278,4 +282,28 @@ pub fn derive(s: &Scenario, state: State) -> Result<DeriveReport> {
     }
     rep.warnings = warnings;
     Ok(rep)
+}
+
+/// The user's A and B of each side and their first derivatives, as text and LaTeX (simplified), so the
+/// junction formulas can be read in the user's own functions.
+fn side_formulas(s: &Scenario) -> Vec<Formula> {
+    let mut out = Vec::new();
+    for (sign, side) in [("+", &s.plus), ("-", &s.minus)] {
+        let mut items = vec![("A", &side.a)];
+        if side.b_given {
+            items.push(("B", &side.b));
+        }
+        for (name, e) in items {
+            let d = e.derivative().simplified();
+            let who = if side.b_given || name == "B" { name.to_string() } else { "A".to_string() };
+            let same = if side.b_given { String::new() } else { format!(" = B_{sign}(r)") };
+            let same_l = if side.b_given { String::new() } else { format!("=B_{{{sign}}}(r)") };
+            out.push(Formula {
+                name: format!("{who}_{}", if sign == "+" { "plus" } else { "minus" }),
+                text: format!("{who}_{sign}(r){same} = {},  {who}'_{sign}(r) = {}", e.to_text(), d.to_text()),
+                latex: format!("{who}_{{{sign}}}(r){same_l}={},\\qquad {who}_{{{sign}}}'(r)={}", e.to_latex(), d.to_latex()),
+            });
+        }
+    }
+    out
 }

@@ -66,7 +66,17 @@ pub fn apply<T: Scalar>(f: Func, a: T) -> T {
         Func::Tan => a.tan(),
         Func::Sinh => a.sinh(),
         Func::Cosh => a.cosh(),
-        Func::Tanh => a.tanh(),
+        // tanh as (1 - u)/(1 + u) with u = exp(-2|x|) <= 1: the dual parts stay accurate where tanh saturates
+        // (the sinh/cosh quotient loses every digit of the higher derivatives there).
+        Func::Tanh => {
+            if a.re() >= 0.0 {
+                let u = (a * -2.0).exp();
+                (T::one() - u) / (T::one() + u)
+            } else {
+                let u = (a * 2.0).exp();
+                (u - T::one()) / (u + T::one())
+            }
+        }
         // d|x|/dx is taken as sign(x), and +1 at exactly x = 0 (the right derivative).
         Func::Abs => {
             if a.re() < 0.0 {

@@ -3,6 +3,7 @@
 mod check;
 mod common;
 mod derive;
+mod evolve;
 mod map;
 mod statics;
 
@@ -31,6 +32,8 @@ enum Command {
     Sweep(statics::SweepArgs),
     /// Two-parameter map of a static shell's stability and energy conditions (data, figure, or --summary).
     Map(map::MapArgs),
+    /// Integrate the nonlinear motion of a shell set moving from a static radius (kick or velocity).
+    Evolve(evolve::EvolveArgs),
     /// Join the part files of a sharded map into exactly what the unsharded run writes.
     Merge(map::MergeArgs),
 }
@@ -53,6 +56,7 @@ pub fn run() -> i32 {
         Command::Sweep(a) => statics::run_sweep(a),
         Command::Map(a) => map::run(a),
         Command::Merge(a) => map::run_merge(a),
+        Command::Evolve(a) => evolve::run(a),
     };
     match result {
         Ok(()) => 0,

@@ -256,6 +256,8 @@ pub fn integrate(motion: &Motion, y0: Vec3, a0: f64, duration: f64, opts: &Evolv
                 if h < hmin {
                     break match last_halt {
                         Some(hl) => StopReason::from_halt(hl),
+                        // A law singular at sigma = 0 (p = -c/sigma) drives Rdot without bound as sigma -> 0.
+                        None if motion.singular_at_zero && y[2].abs() < 1e-3 * y0[2].abs() => (StopReason::LawUndefined, None),
                         None => (StopReason::StepUnderflow, None),
                     };
                 }

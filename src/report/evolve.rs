@@ -36,8 +36,8 @@ pub fn phase_figure(j: &Junction<f64>, r: &EvolveReport) -> Figure {
         x_label: "R/M".into(),
         y_label: "dR/dτ".into(),
         series: vec![
-            Series { label: "±√(−V(R))".into(), points: root(1.0), style: LineStyle::Dashed, colour: 5 },
-            Series { label: String::new(), points: root(-1.0), style: LineStyle::Dashed, colour: 5 },
+            Series { label: "±√(−V(R))".into(), points: root(1.0), style: LineStyle::Dashed, colour: 1 },
+            Series { label: String::new(), points: root(-1.0), style: LineStyle::Dashed, colour: 1 },
             Series { label: "orbit".into(), points: orbit, style: LineStyle::Solid, colour: 0 },
         ],
         markers: vec![Marker { x: r.static_radius, y: 0.0, label: "a₀".into(), filled: r.potential_second_derivative > 0.0, colour: 2 }],

@@ -153,14 +153,14 @@ mod tests {
     }
 
     /// The pair is of order 5: halving a fixed step divides the global error of y' = y on [0, 1] by about
-    /// 2^5 = 32 (Dormand & Prince 1980; exact solution e^t, common practice).
+    /// 2^5 = 32 (Dormand & Prince 1980; exact solution e^t, common practice). Steps 1/16 and 1/32.
     #[test]
     fn fifth_order_convergence() {
         let f = |y: &Vec3| Ok::<_, ()>(([y[0], 0.0, 0.0], ()));
-        let e1 = (fixed(&f, [1.0, 0.0, 0.0], 1.0, 8)[0] - 1f64.exp()).abs();
-        let e2 = (fixed(&f, [1.0, 0.0, 0.0], 1.0, 16)[0] - 1f64.exp()).abs();
+        let e1 = (fixed(&f, [1.0, 0.0, 0.0], 1.0, 16)[0] - 1f64.exp()).abs();
+        let e2 = (fixed(&f, [1.0, 0.0, 0.0], 1.0, 32)[0] - 1f64.exp()).abs();
         let ratio = e1 / e2;
-        assert!((ratio - 32.0).abs() < 3.0, "error ratio {ratio} (e1 = {e1:e}, e2 = {e2:e})");
+        assert!(ratio > 28.0 && ratio < 36.0, "error ratio (order 4 would give 16, order 6 64) {ratio} (e1 = {e1:e}, e2 = {e2:e})");
     }
 
     /// The embedded error estimate is of order h^5 per step: for y' = y the estimate shrinks by ~32 when h halves.

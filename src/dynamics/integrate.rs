@@ -250,7 +250,7 @@ pub fn integrate(motion: &Motion, y0: Vec3, a0: f64, duration: f64, opts: &Evolv
                 }
                 continue;
             }
-            Ok(st) if !(st.err <= 1.0) => {
+            Ok(st) if st.err > 1.0 || st.err.is_nan() => {
                 rejected += 1;
                 h = next_step(h_try, if st.err.is_finite() { st.err } else { 1e10 }, &opts.tol);
                 if h < hmin {

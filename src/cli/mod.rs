@@ -4,6 +4,7 @@ mod chain;
 mod check;
 mod common;
 mod derive;
+mod evolve;
 mod map;
 mod report;
 mod statics;
@@ -34,6 +35,8 @@ enum Command {
     Sweep(statics::SweepArgs),
     /// Two-parameter map of a static shell's stability and energy conditions (data, figure, or --summary).
     Map(map::MapArgs),
+    /// Integrate the nonlinear motion of a shell set moving from a static radius (kick or velocity).
+    Evolve(evolve::EvolveArgs),
     /// Join the part files of a sharded map into exactly what the unsharded run writes.
     Merge(map::MergeArgs),
     /// Everything a paper draft needs for one scenario in one folder: formulas, tables, figures, data.
@@ -68,6 +71,7 @@ pub fn run() -> i32 {
         Command::Demo(a) => report::run_demo(a),
         Command::Geodesic(a) => geodesic::run(a),
         Command::Chain(a) => chain::run(a),
+        Command::Evolve(a) => evolve::run(a),
     };
     match result {
         Ok(()) => 0,

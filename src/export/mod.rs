@@ -1,6 +1,7 @@
 //! Pure renderers: reports in, text/LaTeX/CSV bytes out. Nothing here writes files (see `output`).
 
 pub mod derive;
+pub mod evolve;
 pub mod map;
 pub mod statics;
 

@@ -2,4 +2,5 @@
 
 pub mod bundle;
 pub mod derive;
+pub mod evolve;
 pub mod figures;

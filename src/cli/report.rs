@@ -81,11 +81,43 @@ pub fn run_demo(a: DemoArgs) -> Result<()> {
         "# junctura demo\n\nProduced by junctura {}. Each folder holds one scenario (`scenario.toml`) and its report \
          (`summary.md` lists the files):\n\n- `gravastar/`: thin-shell gravastar (de Sitter core, Schwarzschild exterior), \
          linear law p = w sigma: two static radii (unstable inner, stable outer), potential, sigma0/p0, stability map, \
-         and the static branches as w varies (a fold near w = 0.497).\n- `wormhole/`: charged thin-shell wormhole, \
+         and the static branches as w varies (a fold near w = 0.497), and the nonlinear motion after a kick from the \
+         stable radius.\n- `wormhole/`: charged thin-shell wormhole, \
          stability map over (a, beta^2) with the critical curve.\n- `transition/`: spacelike transition surface \
-         between a black-hole interior and a white-hole interior of different masses (S^l_l, S^theta_theta).\n",
+         between a black-hole interior and a white-hole interior of different masses (S^l_l, S^theta_theta).\n\
+         - `particles/`: a radial test particle crossing a moving shell (`crossing.json`), and a chain of \
+         black-to-white bounces for a solar-mass hole: the bounded orbit's distance to the horizon after each \
+         crossing (`chain.csv`, `chain_distance`, `chain_energy`).\n",
         env!("CARGO_PKG_VERSION")
     );
+    // Test particles: a radial particle through a moving shell of our own demo star, and a chain of bounces.
+    let particles = a.out.join("particles");
+    junctura::output::ensure_dir(&particles)?;
+    let star = Scenario::parse(include_str!("../../scenarios/star-shell.toml"), Some(PathBuf::from("scenarios/star-shell.toml")))?;
+    let req = junctura::geodesic::crossing::CrossingRequest {
+        radius: 4.0,
+        shell_velocity: -0.3,
+        energy_minus: 1.1,
+        particle: junctura::geodesic::radial::Particle::Timelike,
+        direction: None,
+    };
+    let cross = junctura::geodesic::crossing::cross(&star, star.params.values(), &req)?;
+    let cross_json = serde_json::json!({"provenance": star.provenance(), "radius": 4.0, "shell_velocity": -0.3, "energy_minus": 1.1, "crossing": cross});
+    junctura::output::write_atomic(&particles.join("crossing.json"), super::common::to_json(&cross_json).as_bytes())?;
+    let chain_dir = PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("scenarios/chains/bounce-chain.toml");
+    if chain_dir.exists() {
+        let chain = junctura::geodesic::chain::Chain::load(&chain_dir)?;
+        let unit = junctura::units::MassUnit::new(junctura::units::parse_mass("1Msun")?)?;
+        let thr = junctura::units::PLANCK_LENGTH_M / unit.length_m();
+        let run = junctura::geodesic::iterate::run_chain(&chain, chain.crossings, Some(thr))?;
+        let prov = format!("{} | mass 1Msun", chain.provenance());
+        let csv = junctura::geodesic::series::chain_csv(&run, &prov, Some(&unit));
+        junctura::output::write_atomic(&particles.join("chain.csv"), csv.as_bytes())?;
+        let series = junctura::geodesic::series::chain_series(&run, Some(&unit));
+        for (name, fig) in junctura::report::figures::chain_figures(&series, Some(junctura::units::PLANCK_LENGTH_M), &prov) {
+            junctura::plot::write_figure(&fig, &particles, &name)?;
+        }
+    }
     junctura::output::write_atomic(&a.out.join("README.md"), index.as_bytes())?;
     println!("demo written to {}", a.out.display());
     if a.out.as_os_str().is_empty() {

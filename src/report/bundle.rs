@@ -131,6 +131,19 @@ fn timelike_part(s: &Scenario, opts: &ReportOptions, out: &mut Listing) -> Resul
         if let Some(fig) = figures::potential_figure(s, st) {
             out.figure(&fig, "potential", "potential V(a) around each static radius")?;
         }
+        // Nonlinear check of the first linearly stable static radius: a 1% kick, about five linear periods.
+        if let Some(sr) = st.static_radii.iter().find(|r| r.stability == crate::statics::Stability::Stable) {
+            let period = 2.0 * std::f64::consts::PI / (sr.potential_second_derivative / 2.0).sqrt();
+            let opts = crate::dynamics::EvolveOptions::default();
+            let kick = crate::dynamics::Start::Kick(0.01 * sr.radius);
+            if let Ok(ev) = crate::dynamics::evolve(s, sr.radius, kick, 5.0 * period, None, &opts) {
+                out.put("evolve.csv", export::evolve::evolve_csv(&ev).as_bytes(), &format!("nonlinear motion after a 1% kick from the stable a0 = {:.6}", sr.radius))?;
+                out.put("evolve.json", export::evolve::evolve_json(&ev).as_bytes(), "its summary: measured vs linear period, constraint drift, fate")?;
+                out.figure(&crate::report::evolve::radius_figure(&ev), "evolve_radius", "R(tau) of that motion")?;
+                let j = crate::junction::Junction::new(s);
+                out.figure(&crate::report::evolve::phase_figure(&j, &ev), "evolve_phase", "the orbit in the (R, dR/dtau) plane over its potential")?;
+            }
+        }
     }
     out.figure(&figures::sigma_pressure_figure(s, lo, hi), "sigma_pressure", "sigma0(a), p0(a) with energy-condition bands")?;
     // Stability map over (radius, beta^2).

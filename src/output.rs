@@ -53,28 +53,6 @@ pub fn warn(text: &str) {
     let _ = writeln!(std::io::stderr(), "warning: {text}");
 }
 
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn atomic_write_replaces_and_leaves_no_temp() {
-        let dir = tempfile::tempdir().unwrap();
-        let p = dir.path().join("a.csv");
-        write_atomic(&p, b"one").unwrap();
-        write_atomic(&p, b"two").unwrap();
-        assert_eq!(std::fs::read_to_string(&p).unwrap(), "two");
-        assert_eq!(std::fs::read_dir(dir.path()).unwrap().count(), 1);
-    }
-
-    #[test]
-    fn unwritable_folder_is_an_io_error() {
-        let e = write_atomic(Path::new("/nonexistent-folder/x.csv"), b"x").unwrap_err();
-        assert_eq!(e.kind, crate::error::ErrorKind::Io);
-        assert!(e.message.contains("/nonexistent-folder/x.csv"));
-    }
-}
-
 /// A file being written under a temporary name in its final folder; `finish` renames it into place. Dropped
 /// unfinished (an error, or a panic unwinding), the temporary file is removed, so the final name never holds
 /// half a file.
@@ -149,3 +127,26 @@ pub fn remove_temps() {
         }
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn atomic_write_replaces_and_leaves_no_temp() {
+        let dir = tempfile::tempdir().unwrap();
+        let p = dir.path().join("a.csv");
+        write_atomic(&p, b"one").unwrap();
+        write_atomic(&p, b"two").unwrap();
+        assert_eq!(std::fs::read_to_string(&p).unwrap(), "two");
+        assert_eq!(std::fs::read_dir(dir.path()).unwrap().count(), 1);
+    }
+
+    #[test]
+    fn unwritable_folder_is_an_io_error() {
+        let e = write_atomic(Path::new("/nonexistent-folder/x.csv"), b"x").unwrap_err();
+        assert_eq!(e.kind, crate::error::ErrorKind::Io);
+        assert!(e.message.contains("/nonexistent-folder/x.csv"));
+    }
+}
+

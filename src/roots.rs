@@ -210,7 +210,9 @@ fn push_root<F: Fn(f64) -> Option<(f64, f64)>>(out: &mut RootScan, f: &F, x: f64
 mod tests {
     use super::*;
 
-    fn none() -> Option<&'static fn(f64) -> Option<(f64, f64)>> {
+    type Deriv = fn(f64) -> Option<(f64, f64)>;
+
+    fn none() -> Option<&'static Deriv> {
         None
     }
 

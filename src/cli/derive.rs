@@ -36,7 +36,7 @@ pub fn run(args: Args) -> Result<()> {
         return Err(Error::input(format!("--radius {}: the areal radius must be positive", args.radius)));
     }
     let state = State { radius: args.radius, velocity: args.velocity, acceleration: args.acceleration };
-    let rep = derive(&s, state).map_err(|e| e.context(format!("{}", s.origin.label())))?;
+    let rep = derive(&s, state).map_err(|e| e.context(s.origin.label()))?;
     match args.format {
         Format::Json => {
             for w in &rep.warnings {

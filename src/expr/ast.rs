@@ -113,7 +113,7 @@ impl Node {
     }
 
     /// `Neg` constructor that boxes its operand.
-    pub fn neg(x: Node) -> Node {
+    pub fn negate(x: Node) -> Node {
         Node::Neg(Box::new(x))
     }
 

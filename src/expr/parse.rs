@@ -208,7 +208,7 @@ impl<'a> Parser<'a> {
         match self.peek() {
             Tok::Op('-') => {
                 self.bump();
-                Ok(Node::neg(self.unary()?))
+                Ok(Node::negate(self.unary()?))
             }
             Tok::Op('+') => {
                 self.bump();
@@ -340,7 +340,7 @@ mod tests {
     #[test]
     fn unary_minus_binds_looser_than_power() {
         let n = p("-r^2").unwrap();
-        assert_eq!(n, Node::neg(Node::bin(BinOp::Pow, Node::Var, Node::Num(2.0))));
+        assert_eq!(n, Node::negate(Node::bin(BinOp::Pow, Node::Var, Node::Num(2.0))));
     }
 
     #[test]

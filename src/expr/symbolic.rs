@@ -25,7 +25,7 @@ fn sub(a: Node, b: Node) -> Node {
     if is_num(&b, 0.0) {
         a
     } else if is_num(&a, 0.0) {
-        Node::neg(b)
+        Node::negate(b)
     } else {
         Node::bin(BinOp::Sub, a, b)
     }
@@ -73,7 +73,7 @@ pub fn derivative(node: &Node) -> Node {
             if is_num(&d, 0.0) {
                 d
             } else {
-                Node::neg(d)
+                Node::negate(d)
             }
         }
         Node::Bin(op, l, r) => {
@@ -89,7 +89,7 @@ pub fn derivative(node: &Node) -> Node {
                     }
                     let second = div(mul(l.clone(), derivative(r)), pow(r.clone(), Node::Num(2.0)));
                     if is_num(&first, 0.0) {
-                        Node::neg(second)
+                        Node::negate(second)
                     } else {
                         sub(first, second)
                     }
@@ -106,7 +106,7 @@ pub fn derivative(node: &Node) -> Node {
                 Func::Exp => mul(call(Func::Exp, a), da),
                 Func::Log => div(da, a),
                 Func::Sin => mul(call(Func::Cos, a), da),
-                Func::Cos => Node::neg(mul(call(Func::Sin, a), da)),
+                Func::Cos => Node::negate(mul(call(Func::Sin, a), da)),
                 Func::Tan => div(da, pow(call(Func::Cos, a), Node::Num(2.0))),
                 Func::Sinh => mul(call(Func::Cosh, a), da),
                 Func::Cosh => mul(call(Func::Sinh, a), da),
@@ -372,7 +372,7 @@ fn build_product(coef: Coef, factors: &[(Node, Coef)]) -> Node {
         Some(d) => Node::bin(BinOp::Div, numer, d),
     };
     if coef.n < 0.0 {
-        Node::neg(q)
+        Node::negate(q)
     } else {
         q
     }
@@ -423,15 +423,15 @@ fn normalize(node: Node) -> Node {
 
 /// A finite integer value (after folding a constant), if it is one; non-integers stay symbolic.
 fn integer_result(v: f64) -> Option<Node> {
-    (v.is_finite() && is_int(v)).then(|| if v < 0.0 { Node::neg(Node::Num(-v)) } else { Node::Num(v.abs()) })
+    (v.is_finite() && is_int(v)).then(|| if v < 0.0 { Node::negate(Node::Num(-v)) } else { Node::Num(v.abs()) })
 }
 
 fn simplify_once(node: &Node) -> Node {
     match node {
-        Node::Num(v) if *v < 0.0 => Node::neg(Node::Num(-v)),
+        Node::Num(v) if *v < 0.0 => Node::negate(Node::Num(-v)),
         Node::Num(v) => Node::Num(v.abs()),
         Node::Pi | Node::Var | Node::Param(_) => node.clone(),
-        Node::Neg(a) => normalize(Node::neg(simplify_once(a))),
+        Node::Neg(a) => normalize(Node::negate(simplify_once(a))),
         Node::Bin(BinOp::Pow, b, e) => {
             let (b, e) = (simplify_once(b), simplify_once(e));
             if const_exp(&e).is_some() {

@@ -34,12 +34,12 @@ pub fn arb_node() -> impl Strategy<Value = Node> {
     ];
     leaf.prop_recursive(4, 24, 2, |inner| {
         prop_oneof![
-            1 => inner.clone().prop_map(Node::neg),
+            1 => inner.clone().prop_map(Node::negate),
             4 => (prop::sample::select(vec![BinOp::Add, BinOp::Sub, BinOp::Mul, BinOp::Div]), inner.clone(), inner.clone())
                 .prop_map(|(op, l, r)| Node::bin(op, l, r)),
             1 => (inner.clone(), prop::sample::select(vec![-3.0, -2.0, -1.0, 0.0, 1.0, 2.0, 3.0, 0.5, 1.5, -0.5]))
                 .prop_map(|(b, e)| {
-                    let e = if e < 0.0 { Node::neg(Node::Num(-e)) } else { Node::Num(e) };
+                    let e = if e < 0.0 { Node::negate(Node::Num(-e)) } else { Node::Num(e) };
                     Node::bin(BinOp::Pow, b, e)
                 }),
             1 => (inner.clone(), inner.clone()).prop_map(|(b, e)| Node::bin(BinOp::Pow, b, e)),

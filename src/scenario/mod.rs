@@ -275,7 +275,7 @@ impl Scenario {
         let origin = Origin { path, text: text.to_string(), hash };
         let file = origin.label();
         let raw: raw::RawScenario = toml::from_str(text).map_err(|e| {
-            let mut msg = format!("{file}");
+            let mut msg = file.clone();
             if let Some(span) = e.span() {
                 let (l, c) = line_col(text, span.start);
                 msg.push_str(&format!(":{l}:{c}"));

@@ -81,12 +81,12 @@ impl Ctx<'_> {
     fn to_uv(&self, a: f64, l: f64) -> [f64; 2] {
         [(a / self.a_lo).ln() / (self.a_hi / self.a_lo).ln(), (l - self.l_lo) / (self.l_hi - self.l_lo)]
     }
-    fn from_uv(&self, x: [f64; 2]) -> (f64, f64) {
+    fn point_of(&self, x: [f64; 2]) -> (f64, f64) {
         (self.a_lo * ((self.a_hi / self.a_lo).ln() * x[0]).exp(), self.l_lo + x[1] * (self.l_hi - self.l_lo))
     }
     /// f and its gradient in (u, v).
     fn f(&self, x: [f64; 2]) -> Option<(f64, [f64; 2])> {
-        let (a, l) = self.from_uv(x);
+        let (a, l) = self.point_of(x);
         let mut g = [0.0; 2];
         let mut val = 0.0;
         for (slot, (da, dl)) in [(0usize, (1.0, 0.0)), (1usize, (0.0, 1.0))] {
@@ -173,7 +173,7 @@ fn refine_fold(c: &Ctx, x0: [f64; 2], x1: [f64; 2], x2: [f64; 2]) -> Option<(f64
     }
     let u = 0.5 * (lo + hi);
     let v = c.v_at_u(u, x1[1])?;
-    Some(c.from_uv([u, v]))
+    Some(c.point_of([u, v]))
 }
 
 /// Trace the curve from `x0` in direction `dir` (+1/-1 along the tangent); returns the polyline.
@@ -280,7 +280,7 @@ pub fn sweep(s: &Scenario, name: &str, values: &[f64], a_lo: f64, a_hi: f64, opt
                 let tt = if v1 != v0 { (v - v0) / (v1 - v0) } else { 0.0 };
                 let guess = [w[0][0] + tt * (w[1][0] - w[0][0]), v];
                 if let Some(x) = c.polish_at_v(guess) {
-                    let (a, _) = c.from_uv(x);
+                    let (a, _) = c.point_of(x);
                     if points.iter().any(|p: &(usize, f64)| p.0 == vi && (p.1 - a).abs() < 1e-9 * a) {
                         continue;
                     }
@@ -290,7 +290,7 @@ pub fn sweep(s: &Scenario, name: &str, values: &[f64], a_lo: f64, a_hi: f64, opt
         }
         // Mark seeds on this branch as covered.
         for (sj, (vi, x)) in seeds.iter().enumerate() {
-            let (a, _) = c.from_uv(*x);
+            let (a, _) = c.point_of(*x);
             if points.iter().any(|p| p.0 == *vi && (p.1 - a).abs() <= 1e-7 * a) {
                 covered[sj] = true;
             }
@@ -301,7 +301,7 @@ pub fn sweep(s: &Scenario, name: &str, values: &[f64], a_lo: f64, a_hi: f64, opt
         for w in poly.windows(3) {
             let (d0, d1) = (w[1][1] - w[0][1], w[2][1] - w[1][1]);
             if d0 * d1 < 0.0 {
-                let (a, l) = refine_fold(&c, w[0], w[1], w[2]).unwrap_or_else(|| c.from_uv(w[1]));
+                let (a, l) = refine_fold(&c, w[0], w[1], w[2]).unwrap_or_else(|| c.point_of(w[1]));
                 folds.push(Fold { value: l, radius: a });
             }
         }

@@ -55,6 +55,7 @@ pub fn run(args: Args) -> Result<()> {
     match args.format {
         Format::Json => print_stdout(&to_json(&report)),
         Format::Text | Format::Latex => print_stdout(&text(&report)),
+        Format::Csv => print_stdout(&csv(&report)),
     }
     Ok(())
 }
@@ -110,6 +111,27 @@ fn text(r: &Report) -> String {
         }
         for p in &sd.survey.photon_orbits {
             o.push_str(&format!("  circular photon orbit at r = {p:.15}\n"));
+        }
+    }
+    o
+}
+
+/// One row per horizon, photon orbit and region boundary of each side.
+fn csv(r: &Report) -> String {
+    let mut o = format!("# {}\nside,feature,radius [M],detail\n", r.provenance);
+    for (name, sd) in [("minus", &r.minus), ("plus", &r.plus)] {
+        for h in &sd.survey.horizons {
+            o.push_str(&format!("{name},horizon,{:?},{}\n", h.radius, if h.degenerate { "degenerate" } else { "simple" }));
+        }
+        for p in &sd.survey.photon_orbits {
+            o.push_str(&format!("{name},photon_orbit,{p:?},\n"));
+        }
+        for g in &sd.survey.regions {
+            let k = match g.kind {
+                RegionKind::R => "R",
+                RegionKind::T => "T",
+            };
+            o.push_str(&format!("{name},region_start,{:?},{k}\n", g.from));
         }
     }
     o

@@ -14,6 +14,8 @@ pub enum Format {
     Json,
     /// LaTeX (where the command has formulas).
     Latex,
+    /// CSV: a provenance comment line, a header line with units, one row per point.
+    Csv,
 }
 
 /// The scenario file and parameter overrides.

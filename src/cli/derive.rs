@@ -45,6 +45,7 @@ pub fn run(args: Args) -> Result<()> {
             print_stdout(&to_json(&rep))
         }
         Format::Text => print_stdout(&text(&rep)),
+        Format::Csv => print_stdout(&junctura::export::derive::csv(&rep)),
         Format::Latex => {
             for w in &rep.warnings {
                 warn(w);

@@ -5,7 +5,7 @@ use clap::ValueEnum;
 use junctura::export::statics as ex;
 use junctura::metric::default_range;
 use junctura::output::{print_stdout, warn};
-use junctura::statics::sweep::sweep;
+use junctura::statics::sweep::sweep_with_progress;
 use junctura::statics::tune::{tune_at_radius, tune_marginal};
 use junctura::statics::{find_static_radii, StaticsOptions};
 use junctura::{Error, Result};
@@ -137,7 +137,24 @@ pub fn run_sweep(a: SweepArgs) -> Result<()> {
         return Err(Error::input(format!("--vary {}: N = {} values is more than a sweep needs", a.vary, axis.n)).with_hint("use at most 100000 values; for dense 2-D scans use `junctura map`"));
     }
     let (lo, hi) = range(a.from, a.to, default_range(&s))?;
-    let rep = sweep(&s, &axis.name, &axis.values(), lo, hi, &StaticsOptions::default())?;
+    let bar = if std::io::IsTerminal::is_terminal(&std::io::stderr()) && axis.n > 1 {
+        let b = indicatif::ProgressBar::new(axis.n as u64);
+        b.set_style(
+            indicatif::ProgressStyle::with_template("{spinner} sweep {bar:40} {pos}/{len} values, {eta} left")
+                .unwrap_or_else(|_| indicatif::ProgressStyle::default_bar()),
+        );
+        Some(b)
+    } else {
+        None
+    };
+    let rep = sweep_with_progress(&s, &axis.name, &axis.values(), lo, hi, &StaticsOptions::default(), &|done, _| {
+        if let Some(b) = &bar {
+            b.set_position(done as u64);
+        }
+    })?;
+    if let Some(b) = bar {
+        b.finish_and_clear();
+    }
     if a.format != Fmt::Text {
         for n in &rep.notes {
             warn(n);

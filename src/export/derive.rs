@@ -143,3 +143,33 @@ pub fn latex(r: &DeriveReport) -> String {
     o.push_str("\\bottomrule\n\\end{tabular}\n");
     o
 }
+
+/// One CSV row with the main values (provenance comment, header with units). Fields that do not exist for the
+/// shell kind are empty.
+pub fn csv(r: &DeriveReport) -> String {
+    let o = |x: Option<f64>| x.map(num).unwrap_or_default();
+    let ec = r.energy_conditions;
+    let b = |f: fn(&crate::junction::EnergyConditions) -> bool| ec.as_ref().map(|e| f(e).to_string()).unwrap_or_default();
+    format!(
+        "# {}\nshell_kind,radius [M],velocity [1],acceleration [1/M],sigma [1/M],pressure [1/M],S_ll [1/M],S_thth [1/M],K_ss_jump [1/M],K_thth_jump [1/M],shell_mass [M],potential [1],beta2_critical [1],stable_when,null,weak,strong,dominant\n{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{}\n",
+        r.provenance,
+        r.shell_kind,
+        num(r.radius),
+        num(r.velocity),
+        num(r.acceleration),
+        o(r.sigma),
+        o(r.pressure),
+        o(r.s_ll),
+        o(r.s_thth),
+        num(r.k_ss_jump),
+        num(r.k_thth_jump),
+        o(r.shell_mass),
+        num(r.potential),
+        o(r.beta2_critical.flatten()),
+        r.stable_when.map(|s| s.name()).unwrap_or(""),
+        b(|e| e.null),
+        b(|e| e.weak),
+        b(|e| e.strong),
+        b(|e| e.dominant),
+    )
+}

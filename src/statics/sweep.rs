@@ -236,6 +236,19 @@ fn trace(c: &Ctx, x0: [f64; 2], dir: f64, h0: f64, max_steps: usize) -> Vec<[f64
 /// Follow every branch of static radii as parameter `name` runs over `values` (sorted, at least 2),
 /// with radii in [a_lo, a_hi].
 pub fn sweep(s: &Scenario, name: &str, values: &[f64], a_lo: f64, a_hi: f64, opts: &StaticsOptions) -> Result<SweepReport> {
+    sweep_with_progress(s, name, values, a_lo, a_hi, opts, &|_, _| {})
+}
+
+/// [`sweep`], calling `progress(done, total)` after each requested value has been scanned for seeds.
+pub fn sweep_with_progress(
+    s: &Scenario,
+    name: &str,
+    values: &[f64],
+    a_lo: f64,
+    a_hi: f64,
+    opts: &StaticsOptions,
+    progress: &dyn Fn(usize, usize),
+) -> Result<SweepReport> {
     let k = s.params.index(name).map_err(|e| e.context("--vary"))?;
     if values.len() < 2 {
         return Err(Error::input("--vary needs at least 2 values (N >= 2)"));
@@ -252,6 +265,7 @@ pub fn sweep(s: &Scenario, name: &str, values: &[f64], a_lo: f64, a_hi: f64, opt
         for r in rep.static_radii {
             seeds.push((i, c.to_uv(r.radius, l)));
         }
+        progress(i + 1, values.len());
     }
     let h0 = (0.5 / values.len() as f64).min(0.02);
     let max_steps = 40 * values.len() + 4000;

@@ -17,6 +17,8 @@ pub enum GeoFormat {
     Text,
     /// One JSON object on stdout.
     Json,
+    /// One CSV row (provenance comment, header with units).
+    Csv,
 }
 
 /// Radial direction on the minus side.
@@ -102,6 +104,7 @@ pub fn run(args: Args) -> Result<()> {
     match args.format {
         GeoFormat::Json => print_stdout(&to_json(&report)),
         GeoFormat::Text => print_stdout(&text(&report)),
+        GeoFormat::Csv => print_stdout(&csv(&report)),
     }
     Ok(())
 }
@@ -224,4 +227,14 @@ fn text(r: &Report) -> String {
         }
     }
     o
+}
+
+/// One row: the crossing's main numbers; empty fields where the particle cannot cross (`reason` says why).
+fn csv(r: &Report) -> String {
+    let o = |x: Option<f64>| x.map(|v| format!("{v:?}")).unwrap_or_default();
+    let reason = r.reason.clone().unwrap_or_default().replace(',', ";");
+    format!(
+        "# {}\nradius [M],shell_velocity [1],energy_minus [1],energy_plus [1],relative_lorentz_factor [1],can_cross,reason\n{:?},{:?},{:?},{},{},{},{}\n",
+        r.provenance, r.radius, r.shell_velocity, r.energy_minus, o(r.energy_plus), o(r.relative_lorentz_factor), r.can_cross, reason
+    )
 }

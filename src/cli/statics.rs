@@ -77,7 +77,7 @@ pub struct TuneArgs {
     /// Range LO:HI of the solved parameter to search (default: current value +- 10 max(|value|, 1)).
     #[arg(long, allow_hyphen_values = true)]
     within: Option<String>,
-    /// Output format (text or json).
+    /// Output format.
     #[arg(long, value_enum, default_value_t = Fmt::Text)]
     format: Fmt,
 }
@@ -106,7 +106,8 @@ pub fn run_tune(a: TuneArgs) -> Result<()> {
     }
     match a.format {
         Fmt::Json => print_stdout(&ex::tune_json(&rep)),
-        Fmt::Text | Fmt::Csv => print_stdout(&ex::tune_text(&rep)),
+        Fmt::Text => print_stdout(&ex::tune_text(&rep)),
+        Fmt::Csv => print_stdout(&ex::tune_csv(&rep)),
     }
     Ok(())
 }

@@ -187,3 +187,22 @@ pub fn statics_latex(r: &StaticsReport) -> String {
     }
     o
 }
+
+/// CSV of tuned configurations (one row per solution).
+pub fn tune_csv(r: &TuneReport) -> String {
+    let mut o = format!("# {}\nradius [M],{} [param],potential_second_derivative [1/M^2],stability,sigma [1/M],pressure [1/M],residual [1/M],d_radius_d_parameter [M/param]\n", r.provenance, r.parameter);
+    for s in &r.solutions {
+        o.push_str(&format!(
+            "{},{},{},{},{},{},{},{}\n",
+            num(s.radius),
+            num(s.value),
+            num(s.potential_second_derivative),
+            s.stability.name(),
+            num(s.sigma),
+            num(s.pressure),
+            num(s.residual),
+            s.d_radius_d_parameter.map(num).unwrap_or_default()
+        ));
+    }
+    o
+}

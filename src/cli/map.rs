@@ -102,7 +102,7 @@ pub fn run(a: MapArgs) -> Result<()> {
 
 /// Most cells a map written to files may have (a CSV row is about 100 bytes: 1e9 cells is ~100 GB).
 const MAX_FILE_CELLS: u128 = 1_000_000_000;
-/// Most cells in one line of a map written to files (a line is held in memory, ~100 bytes a cell).
+/// Most points on one axis of a map written to files (a line of cells is held in memory, ~100 bytes a cell).
 const MAX_LINE_CELLS: usize = 10_000_000;
 /// Most cells a `--summary` map may count (it streams, but 1e12 cells would take days).
 const MAX_SUMMARY_CELLS: u128 = 1_000_000_000_000;
@@ -111,7 +111,7 @@ const MAX_SUMMARY_CELLS: u128 = 1_000_000_000_000;
 fn check_size(spec: &MapSpec, to_files: bool) -> Result<()> {
     let cells = spec.x.n as u128 * spec.y.n as u128;
     let what = format!("--x {} points x --y {} points = {cells} cells", spec.x.n, spec.y.n);
-    if to_files && (cells > MAX_FILE_CELLS || spec.line_len() > MAX_LINE_CELLS) {
+    if to_files && (cells > MAX_FILE_CELLS || spec.x.n.max(spec.y.n) > MAX_LINE_CELLS) {
         return Err(Error::input(format!("{what}: too many to write to files (at most {MAX_FILE_CELLS} cells, {MAX_LINE_CELLS} on one axis)"))
             .with_hint("use fewer points, or --summary for counts only (it streams and stores no cells)"));
     }

@@ -36,7 +36,7 @@ struct Case {
     name: &'static str,
     /// Scenario text written to `<name>.toml` (None: the row's arguments name their own paths).
     scenario: Option<String>,
-    /// Arguments; `{S}` is the scenario path, `{D}` a fresh folder, `{F}` a regular file.
+    /// Arguments; `{S}` is the scenario path, `{D}` a fresh folder, `{F}` a regular file, `{R}` the repository.
     args: Vec<&'static str>,
     /// Expected exit code.
     code: i32,
@@ -104,6 +104,7 @@ fn catalogue() -> Vec<Case> {
         case("huge_map_to_files_is_refused", base(), &["map", "{S}", "--x", "radius:2:3:100000000", "--y", "beta2:0:1:100000000", "--out", "{D}/huge"], 2, &["cells"]),
         case("huge_map_summary_is_refused", base(), &["map", "{S}", "--x", "radius:2:3:100000000", "--y", "beta2:0:1:100000000", "--summary"], 2, &["cells"]),
         case("long_map_line_to_files_is_refused", base(), &["map", "{S}", "--x", "radius:2.5:3:20000000", "--y", "beta2:0:1:2", "--out", "{D}/long"], 2, &["20000000 points", "--summary"]),
+        case("huge_chain_is_refused", None, &["chain", "{R}/scenarios/chains/bounce-chain.toml", "--crossings", "1000000000000"], 2, &["1000000000000 crossings"]),
         case("huge_sweep_is_refused", base(), &["sweep", "{S}", "--vary", "w:-1:-0.6:100000000"], 2, &["--vary"]),
     ]
 }
@@ -112,6 +113,7 @@ fn subst(s: &str, scen: &Path, dir: &Path, file: &Path) -> String {
     s.replace("{S}", &scen.display().to_string())
         .replace("{D}", &dir.display().to_string())
         .replace("{F}", &file.display().to_string())
+        .replace("{R}", env!("CARGO_MANIFEST_DIR"))
 }
 
 #[test]

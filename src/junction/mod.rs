@@ -129,12 +129,11 @@ impl<'a, T: Scalar> Junction<'a, T> {
             Which::Plus => (self.plus_a, self.plus_b),
         };
         const WHAT: [&str; 4] = ["", "the first derivative of ", "the second derivative of ", "the third derivative of "];
-        for k in 0..=order.min(3) {
+        for (k, what) in WHAT.iter().enumerate().take(order.min(3) + 1) {
             for (name, e, v) in [("A", ea, jet.a[k].re()), ("B", eb, jet.b[k].re())] {
                 if !v.is_finite() {
                     return Err(Error::numerical(format!(
-                        "radius {r}: {}{name} of the {which} side is not finite there ({name} = \"{}\" gives {v})",
-                        WHAT[k],
+                        "radius {r}: {what}{name} of the {which} side is not finite there ({name} = \"{}\" gives {v})",
                         e.source()
                     ))
                     .with_hint(format!(

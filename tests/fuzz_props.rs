@@ -166,3 +166,22 @@ fn the_deepest_accepted_expression_evaluates_on_a_small_worker_stack() {
     let d = h.join().unwrap();
     assert!(d.iter().all(|x| x.is_finite()), "{d:?}");
 }
+
+#[test]
+fn large_integer_exponent_does_not_overflow_in_the_derivatives() {
+    // Found by cargo fuzz (input "555^5554^555^5554555"): powi's third derivative formed n (n-1) (n-2) in i32.
+    // d^k/dr^k r^n at r = 1 is n (n-1) ... (n-k+1) (common practice).
+    for n in [1024.0f64, 1025.0, 5554.0, 1.0e6] {
+        let e = Expr::parse(&format!("r^{n}"), "r", &params()).unwrap();
+        let d = e.derivatives(1.0, &[1.0, 0.5]);
+        let want = [1.0, n, n * (n - 1.0), n * (n - 1.0) * (n - 2.0)];
+        for k in 0..4 {
+            assert!((d[k] - want[k]).abs() <= 1e-12 * want[k].abs().max(1.0), "r^{n}, order {k}: {} vs {}", d[k], want[k]);
+        }
+    }
+    let e = Expr::parse("555^5554^555^5554555", "r", &params()).unwrap();
+    let _ = e.derivatives(2.0, &[1.0, 0.5]);
+    // Negative bases keep exact integer powers up to the bound.
+    let e = Expr::parse("r^1023", "r", &params()).unwrap();
+    assert_eq!(e.derivatives(-1.0, &[1.0, 0.5])[0], -1.0);
+}

@@ -68,9 +68,12 @@ impl AtomicFile {
         let dir = path.parent().filter(|p| !p.as_os_str().is_empty()).unwrap_or_else(|| Path::new("."));
         let name = path.file_name().map(|n| n.to_string_lossy().to_string()).unwrap_or_else(|| "out".into());
         let tmp = dir.join(format!(".{name}.tmp-{}", std::process::id()));
-        let f = std::fs::File::create(&tmp)
-            .map_err(|e| Error::io(path, &e).with_hint("check that the output folder exists and is writable"))?;
+        // Register before creating, so an interrupt between the two cannot leave an unregistered file.
         crate::output::register_temp(&tmp);
+        let f = std::fs::File::create(&tmp).map_err(|e| {
+            crate::output::unregister_temp(&tmp);
+            Error::io(path, &e).with_hint("check that the output folder exists and is writable")
+        })?;
         Ok(AtomicFile { path: path.to_path_buf(), tmp, file: Some(std::io::BufWriter::new(f)) })
     }
 

@@ -69,6 +69,7 @@ pub fn run(a: MapArgs) -> Result<()> {
     let s = a.scenario.load()?;
     let spec = build_spec(&s, &a)?;
     let shard = a.shard.as_deref().map(parse_shard).transpose()?;
+    check_size(&spec, a.out.is_some())?;
     let lines = match shard {
         Some((k, n)) => shard_lines(spec.n_lines(), k, n),
         None => 0..spec.n_lines(),
@@ -99,6 +100,28 @@ pub fn run(a: MapArgs) -> Result<()> {
     }
 }
 
+/// Most cells a map written to files may have (a CSV row is about 100 bytes: 1e9 cells is ~100 GB).
+const MAX_FILE_CELLS: u128 = 1_000_000_000;
+/// Most points on one axis of a map written to files (a line of cells is held in memory, ~100 bytes a cell).
+const MAX_LINE_CELLS: usize = 10_000_000;
+/// Most cells a `--summary` map may count (it streams, but 1e12 cells would take days).
+const MAX_SUMMARY_CELLS: u128 = 1_000_000_000_000;
+
+/// Refuse maps too large to write (or, for `--summary`, to finish), before any work starts.
+fn check_size(spec: &MapSpec, to_files: bool) -> Result<()> {
+    let cells = spec.x.n as u128 * spec.y.n as u128;
+    let what = format!("--x {} points x --y {} points = {cells} cells", spec.x.n, spec.y.n);
+    if to_files && (cells > MAX_FILE_CELLS || spec.x.n.max(spec.y.n) > MAX_LINE_CELLS) {
+        return Err(Error::input(format!("{what}: too many to write to files (at most {MAX_FILE_CELLS} cells, {MAX_LINE_CELLS} on one axis)"))
+            .with_hint("use fewer points, or --summary for counts only (it streams and stores no cells)"));
+    }
+    if !to_files && cells > MAX_SUMMARY_CELLS {
+        return Err(Error::input(format!("{what}: too many to count in reasonable time (at most {MAX_SUMMARY_CELLS})"))
+            .with_hint("use fewer points; the counts converge long before this resolution"));
+    }
+    Ok(())
+}
+
 /// Evaluate `lines` in chunks, streaming the CSV; returns the files written.
 fn write_map(s: &Scenario, spec: &MapSpec, lines: std::ops::Range<usize>, shard: Option<(usize, usize)>, dir: &Path) -> Result<Vec<PathBuf>> {
     let stem = match shard {
@@ -113,7 +136,8 @@ fn write_map(s: &Scenario, spec: &MapSpec, lines: std::ops::Range<usize>, shard:
     let mut summary = Summary::default();
     let mut classes: Vec<Cell> = Vec::new();
     let keep_cells = shard.is_none() && (spec.x.n as u64) * (spec.y.n as u64) <= 4_000_000;
-    let chunk = 64.max(total / 100);
+    // Lines per block: about 1% of the map, but never more than ~1e6 cells held at once.
+    let chunk = 64.max(total / 100).min((1usize << 20) / spec.line_len().max(1)).max(1);
     let mut start = lines.start;
     while start < lines.end {
         let end = (start + chunk).min(lines.end);

@@ -49,8 +49,31 @@ enum Command {
     Chain(chain::Args),
 }
 
+/// On SIGINT or SIGTERM remove every temporary output file (see `junctura::output::register_temp`) and exit
+/// with 128 + the signal number (130 for SIGINT, 143 for SIGTERM), so an interrupted run never leaves a
+/// partial file behind.
+#[cfg(unix)]
+fn install_signal_handler() {
+    use signal_hook::consts::{SIGINT, SIGTERM};
+    let Ok(mut signals) = signal_hook::iterator::Signals::new([SIGINT, SIGTERM]) else {
+        junctura::output::warn("could not install the interrupt handler; an interrupted run may leave .tmp- files");
+        return;
+    };
+    std::thread::spawn(move || {
+        if let Some(sig) = signals.forever().next() {
+            junctura::output::remove_temps();
+            eprintln!("interrupted (signal {sig}): removed temporary files");
+            std::process::exit(128 + sig);
+        }
+    });
+}
+
+#[cfg(not(unix))]
+fn install_signal_handler() {}
+
 /// Run the program; returns the process exit code.
 pub fn run() -> i32 {
+    install_signal_handler();
     let cli = match Cli::try_parse() {
         Ok(c) => c,
         Err(e) => {

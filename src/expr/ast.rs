@@ -137,10 +137,13 @@ impl Node {
         }
     }
 
-    /// The value of a constant integer literal (possibly negated), if this node is one.
+    /// The value of a constant integer literal (possibly negated), if this node is one and |n| <= 1024.
+    ///
+    /// The bound keeps n (n - 1) (n - 2), which third-order dual numbers form in `i32` for powi, from
+    /// overflowing; larger exponents are evaluated as real powers.
     pub fn as_integer(&self) -> Option<i32> {
         match self {
-            Node::Num(v) if v.fract() == 0.0 && v.abs() <= 1.0e6 => Some(*v as i32),
+            Node::Num(v) if v.fract() == 0.0 && v.abs() <= 1024.0 => Some(*v as i32),
             Node::Neg(x) => x.as_integer().map(|n| -n),
             _ => None,
         }

@@ -92,6 +92,11 @@ fn lex(src: &str) -> Result<Lexer, ParseError> {
             }
             let text: String = chars[start..i].iter().collect();
             let v: f64 = text.parse().map_err(|_| err(start, format!("'{text}' is not a valid number")))?;
+            if !v.is_finite() {
+                let mut e = err(start, format!("the number '{text}' is too large for a 64-bit float"));
+                e.hint = Some("numbers must stay below about 1.8e308 in magnitude".into());
+                return Err(e);
+            }
             toks.push((Tok::Num(v), start));
             if i < chars.len() && (chars[i].is_alphabetic() || chars[i] == '_') {
                 return Err(ParseError {
@@ -134,14 +139,19 @@ pub struct Parser<'a> {
     params: &'a [String],
     toks: Vec<(Tok, usize)>,
     pos: usize,
+    depth: usize,
 }
+
+/// Deepest nesting of parentheses, function calls, signs and powers the parser accepts (deeper input would
+/// exhaust the stack in the recursive descent, in evaluation and when the tree is dropped).
+pub const MAX_DEPTH: usize = 200;
 
 impl<'a> Parser<'a> {
     /// Parse `src` as a function of `var` with the parameters `params` (by name; `Node::Param(k)` refers to
     /// `params[k]`).
     pub fn parse(src: &'a str, var: &'a str, params: &'a [String]) -> Result<Node, ParseError> {
         let toks = lex(src)?.toks;
-        let mut p = Parser { src, var, params, toks, pos: 0 };
+        let mut p = Parser { src, var, params, toks, pos: 0, depth: 0 };
         if matches!(p.peek(), Tok::End) {
             return Err(p.error_here("the expression is empty; expected a number, a name or '('".into()));
         }
@@ -177,34 +187,60 @@ impl<'a> Parser<'a> {
     }
 
     fn sum(&mut self) -> Result<Node, ParseError> {
+        // Each further term deepens the left-leaning tree by one level: count it like a nesting level.
+        let base = self.depth;
         let mut lhs = self.product()?;
         loop {
             let op = match self.peek() {
                 Tok::Op('+') => BinOp::Add,
                 Tok::Op('-') => BinOp::Sub,
-                _ => return Ok(lhs),
+                _ => {
+                    self.depth = base;
+                    return Ok(lhs);
+                }
             };
             self.bump();
+            self.depth += 1;
             let rhs = self.product()?;
             lhs = Node::bin(op, lhs, rhs);
         }
     }
 
     fn product(&mut self) -> Result<Node, ParseError> {
+        // Each further term deepens the left-leaning tree by one level: count it like a nesting level.
+        let base = self.depth;
         let mut lhs = self.unary()?;
         loop {
             let op = match self.peek() {
                 Tok::Op('*') => BinOp::Mul,
                 Tok::Op('/') => BinOp::Div,
-                _ => return Ok(lhs),
+                _ => {
+                    self.depth = base;
+                    return Ok(lhs);
+                }
             };
             self.bump();
+            self.depth += 1;
             let rhs = self.unary()?;
             lhs = Node::bin(op, lhs, rhs);
         }
     }
 
+    /// Every nesting level (parentheses, calls, signs, exponents) passes through here, so the depth is
+    /// counted once, in this one place.
     fn unary(&mut self) -> Result<Node, ParseError> {
+        if self.depth >= MAX_DEPTH {
+            let mut e = self.error_here(format!("the expression is nested or chained more than {MAX_DEPTH} levels deep"));
+            e.hint = Some("split the expression or simplify it (each parenthesis, function, sign, power or further term adds a level)".into());
+            return Err(e);
+        }
+        self.depth += 1;
+        let r = self.unary_inner();
+        self.depth -= 1;
+        r
+    }
+
+    fn unary_inner(&mut self) -> Result<Node, ParseError> {
         match self.peek() {
             Tok::Op('-') => {
                 self.bump();

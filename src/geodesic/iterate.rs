@@ -58,12 +58,19 @@ pub struct ChainRun {
     pub warnings: Vec<String>,
 }
 
+/// Most crossings one run may ask for (each keeps a row of ~200 bytes; 1e7 is about 2 GB).
+pub const MAX_CROSSINGS: usize = 10_000_000;
+
 /// Run `crossings` crossings of `chain` (threshold in geometric units, optional).
 pub fn run_chain(chain: &Chain, crossings: usize, threshold: Option<f64>) -> Result<ChainRun> {
+    if crossings > MAX_CROSSINGS {
+        return Err(crate::Error::input(format!("{crossings} crossings: more than the {MAX_CROSSINGS} one run can keep"))
+            .with_hint("ask for fewer crossings (--crossings N or crossings = N in the chain file)"));
+    }
     let roots = RootOptions { samples: 600, ..Default::default() };
     let quad = QuadOptions::default();
     let n = chain.stages.len();
-    let mut rows = Vec::with_capacity(crossings);
+    let mut rows = Vec::with_capacity(crossings.min(4096));
     let mut warnings = Vec::new();
     let mut energy = chain.energy;
     let (mut first_areal, mut first_proper) = (None, None);

@@ -121,20 +121,39 @@ impl<'a, T: Scalar> Junction<'a, T> {
         self.eos.map(|e| e.eval_with(sigma, |k| lift(self.params[k])))
     }
 
+    /// Check that A, B and their derivatives up to `order` (at most 3) of side `which` are finite at radius
+    /// `r`; the error names the side, the function (A or B, with its expression) and the derivative.
+    pub fn check_finite_jet(&self, which: Which, r: f64, jet: &Jet<T>, order: usize) -> Result<()> {
+        let (ea, eb) = match which {
+            Which::Minus => (self.minus_a, self.minus_b),
+            Which::Plus => (self.plus_a, self.plus_b),
+        };
+        const WHAT: [&str; 4] = ["", "the first derivative of ", "the second derivative of ", "the third derivative of "];
+        for (k, what) in WHAT.iter().enumerate().take(order.min(3) + 1) {
+            for (name, e, v) in [("A", ea, jet.a[k].re()), ("B", eb, jet.b[k].re())] {
+                if !v.is_finite() {
+                    return Err(Error::numerical(format!(
+                        "radius {r}: {what}{name} of the {which} side is not finite there ({name} = \"{}\" gives {v})",
+                        e.source()
+                    ))
+                    .with_hint(format!(
+                        "{name} is singular or undefined at r = {r} (a division by zero, or log/sqrt of a negative number); choose another radius"
+                    )));
+                }
+            }
+        }
+        Ok(())
+    }
+
     /// Check that a static shell can sit at `a`: both sides in the region the shell kind needs (B > 0 for a
     /// timelike shell, B < 0 for a spacelike one), not numerically at a horizon, and each R-region `keep`
     /// consistent with B > 0 there.
     pub fn check_static_radius(&self, a: f64, jm: &Jet<T>, jp: &Jet<T>) -> Result<()> {
         for (which, jet, keep) in [(Which::Minus, jm, self.keep_minus), (Which::Plus, jp, self.keep_plus)] {
+            self.check_finite_jet(which, a, jet, 2)?;
             let b = jet.b[0].re();
             let a_val = jet.a[0].re();
             let scale = 1.0 + a * jet.b[1].re().abs();
-            if !b.is_finite() || !a_val.is_finite() {
-                return Err(Error::numerical(format!(
-                    "radius {a}: A or B of the {which} side is not finite there (A = {a_val}, B = {b})"
-                ))
-                .with_hint("the metric function is singular or undefined at this radius; choose another radius"));
-            }
             if b.abs() <= HORIZON_TOL * scale {
                 return Err(Error::numerical(format!(
                     "radius {a} is at (or numerically within {:.0e} of) a horizon of the {which} side: B = {b:e}",

@@ -169,6 +169,8 @@ pub fn derive(s: &Scenario, state: State) -> Result<DeriveReport> {
     } else {
         let jm = j.jet(crate::scenario::Which::Minus, r);
         let jp = j.jet(crate::scenario::Which::Plus, r);
+        j.check_finite_jet(crate::scenario::Which::Minus, r, &jm, 1)?;
+        j.check_finite_jet(crate::scenario::Which::Plus, r, &jp, 1)?;
         (j.stress_with_jets(&jm, &jp, r, state.velocity, state.acceleration)?, [jm, jp])
     };
     for (i, name) in [(0, "minus"), (1, "plus")] {
@@ -258,6 +260,15 @@ pub fn derive(s: &Scenario, state: State) -> Result<DeriveReport> {
                     let d: num_dual::Dual64 =
                         eos.eval_at(num_dual::Dual64::new(sigma, 1.0), s.params.values());
                     let v2 = j.potential_taylor(&sv, Law::Scenario).map(|v| v[2]).unwrap_or(f64::NAN);
+                    if !(d.re.is_finite() && d.eps.is_finite()) {
+                        return Err(crate::Error::numerical(format!(
+                            "radius {r}: the equation of state [shell] pressure = \"{}\" is not finite at sigma0 = {sigma:.6e} (P = {}, dP/dsigma = {})",
+                            eos.source(),
+                            d.re,
+                            d.eps
+                        ))
+                        .with_hint("the law is singular or undefined at this surface energy density (a division by zero, or log/sqrt of a negative number)"));
+                    }
                     let residual = p - d.re;
                     if residual.abs() > 1e-9 * (p.abs() + d.re.abs()).max(1e-300) {
                         warnings.push(format!(
@@ -281,6 +292,12 @@ pub fn derive(s: &Scenario, state: State) -> Result<DeriveReport> {
         }
     }
     rep.warnings = warnings;
+    if let Some(name) = first_non_finite(&rep) {
+        return Err(crate::Error::numerical(format!(
+            "radius {r}: {name} is not finite at this shell state (the formulas break down here)"
+        ))
+        .with_hint("A or B or their derivatives make this quantity overflow or divide by zero; choose another radius or state"));
+    }
     Ok(rep)
 }
 
@@ -306,4 +323,41 @@ fn side_formulas(s: &Scenario) -> Vec<Formula> {
         }
     }
     out
+}
+
+/// The name of the first reported number that is NaN or infinite, if any (no report leaves with one).
+fn first_non_finite(rep: &DeriveReport) -> Option<&'static str> {
+    let mut all: Vec<(&'static str, Option<f64>)> = Vec::new();
+    for (side, v) in [("minus", &rep.minus), ("plus", &rep.plus)] {
+        let named: [(&'static str, f64); 7] = if side == "minus" {
+            [("A (minus)", v.a), ("B (minus)", v.b), ("A' (minus)", v.a_prime), ("B' (minus)", v.b_prime), ("n^r (minus)", v.n_r), ("K^s_s (minus)", v.k_ss), ("K^theta_theta (minus)", v.k_thth)]
+        } else {
+            [("A (plus)", v.a), ("B (plus)", v.b), ("A' (plus)", v.a_prime), ("B' (plus)", v.b_prime), ("n^r (plus)", v.n_r), ("K^s_s (plus)", v.k_ss), ("K^theta_theta (plus)", v.k_thth)]
+        };
+        all.extend(named.iter().map(|&(n, x)| (n, Some(x))));
+    }
+    all.extend([
+        ("[K^s_s]", Some(rep.k_ss_jump)),
+        ("[K^theta_theta]", Some(rep.k_thth_jump)),
+        ("sigma", rep.sigma),
+        ("p", rep.pressure),
+        ("S^l_l", rep.s_ll),
+        ("S^theta_theta", rep.s_thth),
+        ("the shell mass", rep.shell_mass),
+        ("the potential V(R)", Some(rep.potential)),
+        ("V'(a)", rep.potential_first_derivative),
+        ("the flux term Xi", rep.flux_term),
+        ("V''(a) at beta^2 = 0", rep.v2_at_beta2_zero),
+        ("dV''(a)/d beta^2", rep.v2_slope),
+        ("the critical beta^2", rep.beta2_critical.flatten()),
+    ]);
+    if let Some(e) = &rep.equation_of_state {
+        all.extend([
+            ("P(sigma0)", Some(e.pressure_from_law)),
+            ("the residual p0 - P(sigma0)", Some(e.residual)),
+            ("beta^2 = P'(sigma0)", Some(e.beta2)),
+            ("V''(a) with the law", Some(e.potential_second_derivative)),
+        ]);
+    }
+    all.into_iter().find(|(_, v)| v.is_some_and(|x| !x.is_finite())).map(|(n, _)| n)
 }

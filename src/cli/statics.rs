@@ -91,13 +91,13 @@ pub fn run_tune(a: TuneArgs) -> Result<()> {
             (Some(lo), Some(hi)) => range(Some(lo), Some(hi), (lo, hi))?,
             _ => return Err(Error::input("--marginal needs --from LO --to HI (the radius range)").with_hint("e.g. --marginal --from 2.1 --to 6")),
         };
-        tune_marginal(&s, &a.solve, lo, hi, within, &opts)?
+        tune_marginal(&s, &a.solve, lo, hi, within, &opts).map_err(|e| e.context(s.origin.label()))?
     } else {
         let r = a.radius.ok_or_else(|| Error::input("tune needs --radius R or --marginal").with_hint("e.g. tune SCENARIO --solve w --radius 4"))?;
         if !(r.is_finite() && r > 0.0) {
             return Err(Error::input(format!("--radius {r}: the areal radius must be a positive number")));
         }
-        tune_at_radius(&s, &a.solve, r, within, &opts)?
+        tune_at_radius(&s, &a.solve, r, within, &opts).map_err(|e| e.context(s.origin.label()))?
     };
     if a.format == Fmt::Json {
         for n in &rep.notes {

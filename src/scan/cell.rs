@@ -294,9 +294,11 @@ impl<'a> Evaluator<'a> {
                 None => static_point(&Junction::with_params(self.s, params.clone()), radius),
             };
             let bits = res.map(|(sigma, p, _, _)| energy_bits(EnergyConditions::evaluate(sigma, p, self.s.dimension)));
+            let (axis, other) = if spec.lines_are_columns() { (&spec.y, x0) } else { (&spec.x, y0) };
             for jj in 0..n {
-                let (ix, iy, x, y) = xy(jj);
-                let beta2 = if spec.x.kind == AxisKind::Beta2 { x } else { y };
+                let (ix, iy) = spec.cell_index(i, jj);
+                let beta2 = axis.value(jj);
+                let (x, y) = if spec.lines_are_columns() { (other, beta2) } else { (beta2, other) };
                 emit(match (res, bits) {
                     (Ok(v), Ok(b)) => self.radius_cell(ix, iy, x, y, radius, beta2, v, b),
                     (Err(class), _) | (_, Err(class)) => Cell::empty(ix, iy, x, y, class),
@@ -306,12 +308,14 @@ impl<'a> Evaluator<'a> {
             // Parameters fixed along the line: batch the metric functions over all its radii.
             let (_, _, x0, y0) = xy(0);
             self.point(x0, y0, &mut params);
+            let (axis, other) = if spec.lines_are_columns() { (&spec.y, x0) } else { (&spec.x, y0) };
             scratch.xs.clear();
-            scratch.xs.extend((0..n).map(|jj| self.radius_of(xy(jj))));
+            scratch.xs.extend((0..n).map(|jj| axis.value(jj)));
             f.eval_line(&params, scratch);
             for jj in 0..n {
-                let (ix, iy, x, y) = xy(jj);
+                let (ix, iy) = spec.cell_index(i, jj);
                 let radius = scratch.xs[jj];
+                let (x, y) = if spec.lines_are_columns() { (other, radius) } else { (radius, other) };
                 emit(self.fast_cell(f, ix, iy, x, y, radius, f.line_jets(scratch, jj), &params));
             }
         } else if let Some(f) = &self.fast.as_ref().filter(|_| spec.x.kind == AxisKind::Radius || spec.y.kind == AxisKind::Radius) {
@@ -348,16 +352,6 @@ impl<'a> Evaluator<'a> {
             }
         }
         scratch.params = params;
-    }
-
-    /// The radius of a cell whose axes are (ix, iy, x, y).
-    #[inline]
-    fn radius_of(&self, (_, _, x, y): (usize, usize, f64, f64)) -> f64 {
-        if self.spec.x.kind == AxisKind::Radius {
-            x
-        } else {
-            y
-        }
     }
 
     /// A cell on the fast path from the jets at its radius.

@@ -84,42 +84,54 @@ pub fn static_coefficients(shape: &Shape, a: f64, jets: &[Jet2; 2]) -> Result<St
     }
     let Shape { eps, n_ang: n, nu } = *shape;
     let pi8 = 8.0 * PI;
+    // Per side: w = sqrt(eps B), Phi, Phi' and eps B'/(2 w); computed once when both sides are the same function.
+    let side = |j: &Jet2| {
+        let [av, a1, a2] = j.a;
+        let [bv, b1, b2] = j.b;
+        let (ia, ib) = (1.0 / av, 1.0 / bv);
+        let (ra, rb) = (a1 * ia, b1 * ib);
+        let w = (bv * eps).sqrt();
+        let phi = 0.5 * (ra - rb);
+        let dphi = 0.5 * (a2 * ia - ra * ra - b2 * ib + rb * rb);
+        (w, phi, dphi, b1 * (0.5 * eps) / w)
+    };
+    let s0 = side(&jets[0]);
+    let s1 = if jets[1] == jets[0] { s0 } else { side(&jets[1]) };
     let mut x = [0.0; 2];
     let mut k_ss = [0.0; 2];
     let mut phi = [0.0; 2];
     let mut dphi = [0.0; 2];
-    for i in 0..2 {
-        let [av, a1, a2] = jets[i].a;
-        let [bv, b1, b2] = jets[i].b;
-        let w = (bv * eps).sqrt();
+    for (i, (w, ph, dph, kb)) in [s0, s1].into_iter().enumerate() {
         x[i] = w * nu[i];
-        phi[i] = a1 / (av * 2.0) - b1 / (bv * 2.0);
-        dphi[i] = a2 / (av * 2.0) - a1 * a1 / (av * av * 2.0) - b2 / (bv * 2.0) + b1 * b1 / (bv * bv * 2.0);
-        k_ss[i] = (b1 * (0.5 * eps)) / w * nu[i] + x[i] * phi[i];
+        phi[i] = ph;
+        dphi[i] = dph;
+        k_ss[i] = kb * nu[i] + x[i] * ph;
     }
-    let jump_th = x[1] / a - x[0] / a;
+    let ia = 1.0 / a;
+    let jump_th = (x[1] - x[0]) * ia;
     let jump_ss = k_ss[1] - k_ss[0];
     let sigma = -(jump_th * (eps * n / pi8));
     let p = (jump_ss + jump_th * (n - 1.0)) * (eps / pi8);
     // Second-order expansion of Y(R) about a.
     let y0 = x[1] - x[0];
+    let iy = 1.0 / y0;
     let db = [jets[1].b[0] - jets[0].b[0], jets[1].b[1] - jets[0].b[1], jets[1].b[2] - jets[0].b[2]];
-    let xp = (y0 + db[0] * eps / y0) * 0.5;
-    let xm = (db[0] * eps / y0 - y0) * 0.5;
-    let y1 = p * pi8 - (xp * phi[1] - xm * phi[0]) - y0 * (n - 1.0) / a;
-    let d_ratio = eps * (db[1] / y0 - db[0] * y1 / (y0 * y0));
+    let xp = (y0 + db[0] * eps * iy) * 0.5;
+    let xm = (db[0] * eps * iy - y0) * 0.5;
+    let y1 = p * pi8 - (xp * phi[1] - xm * phi[0]) - y0 * (n - 1.0) * ia;
+    let d_ratio = eps * (db[1] - db[0] * y1 * iy) * iy;
     let xp1 = (y1 + d_ratio) * 0.5;
     let xm1 = (d_ratio - y1) * 0.5;
     let flux1 = xp1 * phi[1] + xp * dphi[1] - xm1 * phi[0] - xm * dphi[0];
-    let dyr = y1 / a - y0 / (a * a);
+    let dyr = (y1 - y0 * ia) * ia;
     let y2_0 = -flux1 - (n - 1.0) * dyr;
     let y2_beta = -n * dyr;
     // V'' = v_fixed + k Y2.
-    let t = db[0] / (2.0 * y0);
-    let t1 = db[1] / (2.0 * y0) - db[0] * y1 / (2.0 * y0 * y0);
-    let t2_fixed = db[2] / (2.0 * y0) - db[1] * y1 / (y0 * y0) + db[0] * y1 * y1 / (y0 * y0 * y0);
+    let t = 0.5 * db[0] * iy;
+    let t1 = 0.5 * (db[1] - db[0] * y1 * iy) * iy;
+    let t2_fixed = (0.5 * db[2] - (db[1] - db[0] * y1 * iy) * y1 * iy) * iy;
     let v_fixed = eps * (jets[1].b[2] + jets[0].b[2]) * 0.5 - 2.0 * (t1 * t1 + t * t2_fixed) - y1 * y1 * 0.5;
-    let k = t * db[0] / (y0 * y0) - y0 * 0.5;
+    let k = t * db[0] * iy * iy - y0 * 0.5;
     let c0 = v_fixed + k * y2_0;
     let c1 = k * y2_beta;
     if !(sigma.is_finite() && p.is_finite() && c0.is_finite() && c1.is_finite()) {

@@ -1,6 +1,6 @@
 //! One map cell: its values, its class, and the per-line evaluator.
 
-use super::fast::{static_coefficients, FastJunction, Jet2, LineScratch};
+use super::fast::{static_coefficients, FastJunction, LineScratch, StaticCoefficients};
 use super::grid::{AxisKind, Beta2Source, MapSpec};
 use crate::error::Result;
 use crate::junction::{EnergyConditions, Junction, HORIZON_TOL};
@@ -311,19 +311,19 @@ impl<'a> Evaluator<'a> {
             let (axis, other) = if spec.lines_are_columns() { (&spec.y, x0) } else { (&spec.x, y0) };
             scratch.xs.clear();
             scratch.xs.extend((0..n).map(|jj| axis.value(jj)));
-            f.eval_line(&params, scratch);
+            f.eval_line_coefficients(&params, scratch);
             for jj in 0..n {
                 let (ix, iy) = spec.cell_index(i, jj);
                 let radius = scratch.xs[jj];
                 let (x, y) = if spec.lines_are_columns() { (other, radius) } else { (radius, other) };
-                emit(self.fast_cell(f, ix, iy, x, y, radius, f.line_jets(scratch, jj), &params));
+                emit(self.fast_cell(f, ix, iy, x, y, radius, f.line_result(scratch, jj), &params));
             }
         } else if let Some(f) = &self.fast.as_ref().filter(|_| spec.x.kind == AxisKind::Radius || spec.y.kind == AxisKind::Radius) {
             // The line runs along a parameter: per point.
             for jj in 0..n {
                 let (ix, iy, x, y) = xy(jj);
                 let (radius, _) = self.point(x, y, &mut params);
-                emit(self.fast_cell(f, ix, iy, x, y, radius, f.point_jets(radius, &params), &params));
+                emit(self.fast_cell(f, ix, iy, x, y, radius, static_coefficients(&f.shape, radius, &f.point_jets(radius, &params)), &params));
             }
         } else {
             for jj in 0..n {
@@ -357,8 +357,8 @@ impl<'a> Evaluator<'a> {
     /// A cell on the fast path from the jets at its radius.
     #[allow(clippy::too_many_arguments)]
     #[inline]
-    fn fast_cell(&self, f: &FastJunction, ix: usize, iy: usize, x: f64, y: f64, radius: f64, jets: [Jet2; 2], params: &[f64]) -> Cell {
-        match static_coefficients(&f.shape, radius, &jets) {
+    fn fast_cell(&self, f: &FastJunction, ix: usize, iy: usize, x: f64, y: f64, radius: f64, res: std::result::Result<StaticCoefficients, CellClass>, params: &[f64]) -> Cell {
+        match res {
             Ok(c) => {
                 let beta2 = match self.spec.beta2 {
                     Beta2Source::Fixed(b) => b,

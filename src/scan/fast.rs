@@ -71,6 +71,12 @@ impl Shape {
 /// sigma' = -n (Y1/a - y0/a^2)/(8 pi). With T = dB/(2Y), V = eps (B_+ + B_-)/2 - T^2 - Y^2/4 gives
 /// V'' = eps (B_+'' + B_-'')/2 - 2 (T'^2 + T T'') - (Y1^2 + y0 Y2)/2, linear in Y2 and hence in beta^2.
 pub fn static_coefficients(shape: &Shape, a: f64, jets: &[Jet2; 2]) -> Result<StaticCoefficients, CellClass> {
+    checked(a, jets, coefficients(shape, a, jets, jets[1] == jets[0]))
+}
+
+/// The class decisions of [`static_coefficients`] applied to values computed without them.
+#[inline(always)]
+fn checked(a: f64, jets: &[Jet2; 2], c: StaticCoefficients) -> Result<StaticCoefficients, CellClass> {
     for j in jets {
         if j.b[0].is_nan() || j.a[0].is_nan() {
             return Err(CellClass::NoStatic);
@@ -82,6 +88,16 @@ pub fn static_coefficients(shape: &Shape, a: f64, jets: &[Jet2; 2]) -> Result<St
             return Err(CellClass::NoStatic);
         }
     }
+    if !(c.sigma.is_finite() && c.pressure.is_finite() && c.c0.is_finite() && c.c1.is_finite()) {
+        return Err(CellClass::NoStatic);
+    }
+    Ok(c)
+}
+
+/// The formulas of [`static_coefficients`] without any check (branch-free, so a loop over a line can run
+/// several radii at once); `same` says that both sides have identical jets.
+#[inline(always)]
+fn coefficients(shape: &Shape, a: f64, jets: &[Jet2; 2], same: bool) -> StaticCoefficients {
     let Shape { eps, n_ang: n, nu } = *shape;
     let pi8 = 8.0 * PI;
     // Per side: w = sqrt(eps B), Phi, Phi' and eps B'/(2 w); computed once when both sides are the same function.
@@ -96,7 +112,7 @@ pub fn static_coefficients(shape: &Shape, a: f64, jets: &[Jet2; 2]) -> Result<St
         (w, phi, dphi, b1 * (0.5 * eps) / w)
     };
     let s0 = side(&jets[0]);
-    let s1 = if jets[1] == jets[0] { s0 } else { side(&jets[1]) };
+    let s1 = if same { s0 } else { side(&jets[1]) };
     let mut x = [0.0; 2];
     let mut k_ss = [0.0; 2];
     let mut phi = [0.0; 2];
@@ -134,10 +150,7 @@ pub fn static_coefficients(shape: &Shape, a: f64, jets: &[Jet2; 2]) -> Result<St
     let k = t * db[0] * iy * iy - y0 * 0.5;
     let c0 = v_fixed + k * y2_0;
     let c1 = k * y2_beta;
-    if !(sigma.is_finite() && p.is_finite() && c0.is_finite() && c1.is_finite()) {
-        return Err(CellClass::NoStatic);
-    }
-    Ok(StaticCoefficients { sigma, pressure: p, c0, c1 })
+    StaticCoefficients { sigma, pressure: p, c0, c1 }
 }
 
 /// Compiled A and B of both sides, identical functions evaluated once, plus the law's tape.
@@ -159,6 +172,7 @@ pub struct LineScratch {
     pub xs: Vec<f64>,
     /// Parameter values of the current point.
     pub params: Vec<f64>,
+    coef: [Vec<f64>; 4],
     vals: Vec<[Vec<f64>; 3]>,
 }
 
@@ -208,6 +222,47 @@ impl FastJunction {
             let [f, df, d2f] = v;
             t.eval_batch_d2(&scratch.xs, params, f, df, d2f);
         }
+    }
+
+    /// Static values at every radius of `scratch.xs` with parameters `params`: the metric functions in one
+    /// batch, then the closed form over the whole line (read with [`FastJunction::line_result`]).
+    pub fn eval_line_coefficients(&self, params: &[f64], scratch: &mut LineScratch) {
+        self.eval_line(params, scratch);
+        let n = scratch.xs.len();
+        for c in scratch.coef.iter_mut() {
+            c.resize(n, 0.0);
+        }
+        if self.which[0] == self.which[2] && self.which[1] == self.which[3] {
+            self.line_loop::<true>(scratch);
+        } else {
+            self.line_loop::<false>(scratch);
+        }
+    }
+
+    /// The closed form over a line, structure of arrays (so the compiler can run several radii at once).
+    fn line_loop<const SAME: bool>(&self, scratch: &mut LineScratch) {
+        let n = scratch.xs.len();
+        let xs = &scratch.xs[..n];
+        let col = |k: usize, d: usize| &scratch.vals[self.which[k]][d][..n];
+        let (am, bm, ap, bp) = ([col(0, 0), col(0, 1), col(0, 2)], [col(1, 0), col(1, 1), col(1, 2)], [col(2, 0), col(2, 1), col(2, 2)], [col(3, 0), col(3, 1), col(3, 2)]);
+        let [o_s, o_p, o_c0, o_c1] = &mut scratch.coef;
+        let (o_s, o_p, o_c0, o_c1) = (&mut o_s[..n], &mut o_p[..n], &mut o_c0[..n], &mut o_c1[..n]);
+        for j in 0..n {
+            let jets = [
+                Jet2 { a: [am[0][j], am[1][j], am[2][j]], b: [bm[0][j], bm[1][j], bm[2][j]] },
+                Jet2 { a: [ap[0][j], ap[1][j], ap[2][j]], b: [bp[0][j], bp[1][j], bp[2][j]] },
+            ];
+            let c = coefficients(&self.shape, xs[j], &jets, SAME);
+            (o_s[j], o_p[j], o_c0[j], o_c1[j]) = (c.sigma, c.pressure, c.c0, c.c1);
+        }
+    }
+
+    /// The static values at point `j` of the line last evaluated by [`FastJunction::eval_line_coefficients`],
+    /// with the checks of [`static_coefficients`].
+    #[inline]
+    pub fn line_result(&self, scratch: &LineScratch, j: usize) -> Result<StaticCoefficients, CellClass> {
+        let [s, p, c0, c1] = &scratch.coef;
+        checked(scratch.xs[j], &self.line_jets(scratch, j), StaticCoefficients { sigma: s[j], pressure: p[j], c0: c0[j], c1: c1[j] })
     }
 
     /// Jets at point `j` of the line last evaluated by [`FastJunction::eval_line`].

@@ -30,8 +30,8 @@ fn agree(s: &Scenario, params: &[f64], a: f64, what: &str) -> bool {
     let fast = static_coefficients(&fj.shape, a, &fj.point_jets(a, params));
     // The batch path over a line of radii gives the same jets as the per-point path.
     let mut sc = LineScratch { xs: vec![a * 0.9, a, a * 1.1], ..Default::default() };
-    fj.eval_line(params, &mut sc);
-    let batch = static_coefficients(&fj.shape, a, &fj.line_jets(&sc, 1));
+    fj.eval_line_coefficients(params, &mut sc);
+    let batch = fj.line_result(&sc, 1);
     match (generic, fast, batch) {
         (Ok((sg, pg, c0g, c1g)), Ok(f), Ok(b)) => {
             let scale = c0g.abs() + c1g.abs();

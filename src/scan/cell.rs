@@ -1,5 +1,6 @@
 //! One map cell: its values, its class, and the per-line evaluator.
 
+use super::fast::{static_coefficients, FastJunction, LineScratch, StaticCoefficients};
 use super::grid::{AxisKind, Beta2Source, MapSpec};
 use crate::error::Result;
 use crate::junction::{EnergyConditions, Junction, HORIZON_TOL};
@@ -202,18 +203,36 @@ pub fn classify_v2(c0: f64, c1: f64, beta2: f64) -> (f64, CellClass) {
     (v2, class)
 }
 
+/// Which computation evaluates cells with a radius axis.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Method {
+    /// Plain f64: compiled tapes (batched along radius lines) and the closed-form V'' coefficients
+    /// ([`super::fast`]). The default.
+    Fast,
+    /// The generic reference: a `Junction` per cell, dual-number tree walks and the Picard expansion of the
+    /// potential ([`Junction::v2_coefficients`]).
+    Generic,
+}
+
 /// Evaluates lines of a map.
 pub struct Evaluator<'a> {
     s: &'a Scenario,
     spec: &'a MapSpec,
     statics: StaticsOptions,
+    fast: Option<FastJunction>,
 }
 
 impl<'a> Evaluator<'a> {
-    /// Prepare.
+    /// Prepare (fast path).
     pub fn new(s: &'a Scenario, spec: &'a MapSpec) -> Result<Evaluator<'a>> {
+        Evaluator::with_method(s, spec, Method::Fast)
+    }
+
+    /// Prepare with a chosen method (the generic one is the reference the fast one is tested against).
+    pub fn with_method(s: &'a Scenario, spec: &'a MapSpec, method: Method) -> Result<Evaluator<'a>> {
         let statics = StaticsOptions { roots: crate::roots::RootOptions { samples: 600, ..Default::default() }, ..Default::default() };
-        Ok(Evaluator { s, spec, statics })
+        let fast = (method == Method::Fast).then(|| FastJunction::new(s));
+        Ok(Evaluator { s, spec, statics, fast })
     }
 
     /// Parameters and radius (NaN if no radius axis) for a point with axis values (x, y).
@@ -232,69 +251,135 @@ impl<'a> Evaluator<'a> {
 
     /// All cells of line `i`, in order along the line.
     pub fn line(&self, i: usize) -> Vec<Cell> {
+        self.line_with(i, &mut LineScratch::default())
+    }
+
+    /// All cells of line `i`, reusing the buffers in `scratch`.
+    pub fn line_with(&self, i: usize, scratch: &mut LineScratch) -> Vec<Cell> {
         let mut out = Vec::with_capacity(self.spec.line_len());
-        self.for_each_cell(i, |c| out.push(c));
+        self.for_each_cell(i, scratch, |c| out.push(c));
         out
     }
 
     /// Count line `i` into `acc`.
     pub fn line_summary(&self, i: usize, acc: &mut Summary) {
-        self.for_each_cell(i, |c| acc.add(c.class, c.energy_bits));
+        self.line_summary_with(i, acc, &mut LineScratch::default());
     }
 
-    fn for_each_cell<F: FnMut(Cell)>(&self, i: usize, mut emit: F) {
+    /// Count line `i` into `acc`, reusing the buffers in `scratch` (no per-cell allocation).
+    pub fn line_summary_with(&self, i: usize, acc: &mut Summary, scratch: &mut LineScratch) {
+        self.for_each_cell(i, scratch, |c| acc.add(c.class, c.energy_bits));
+    }
+
+    #[inline]
+    fn for_each_cell<F: FnMut(Cell)>(&self, i: usize, scratch: &mut LineScratch, mut emit: F) {
         let spec = self.spec;
-        let mut params = self.s.params.values().to_vec();
+        let mut params = std::mem::take(&mut scratch.params);
+        params.clear();
+        params.extend_from_slice(self.s.params.values());
         let n = spec.line_len();
         let xy = |j: usize| {
             let (ix, iy) = spec.cell_index(i, j);
             (ix, iy, spec.x.value(ix), spec.y.value(iy))
         };
         let beta_axis = spec.x.kind == AxisKind::Beta2 || spec.y.kind == AxisKind::Beta2;
+        let along = if spec.lines_are_columns() { spec.y.kind } else { spec.x.kind };
         if beta_axis {
             // One junction evaluation for the whole line; V'' is linear in beta^2.
             let (_, _, x0, y0) = xy(0);
             let (radius, _) = self.point(x0, y0, &mut params);
-            let j = Junction::with_params(self.s, params.clone());
-            let res = static_point(&j, radius);
+            let res = match &self.fast {
+                Some(f) => static_coefficients(&f.shape, radius, &f.point_jets(radius, &params))
+                    .map(|c| (c.sigma, c.pressure, c.c0, c.c1)),
+                None => static_point(&Junction::with_params(self.s, params.clone()), radius),
+            };
+            let bits = res.map(|(sigma, p, _, _)| energy_bits(EnergyConditions::evaluate(sigma, p, self.s.dimension)));
+            let (axis, other) = if spec.lines_are_columns() { (&spec.y, x0) } else { (&spec.x, y0) };
+            for jj in 0..n {
+                let (ix, iy) = spec.cell_index(i, jj);
+                let beta2 = axis.value(jj);
+                let (x, y) = if spec.lines_are_columns() { (other, beta2) } else { (beta2, other) };
+                emit(match (res, bits) {
+                    (Ok(v), Ok(b)) => self.radius_cell(ix, iy, x, y, radius, beta2, v, b),
+                    (Err(class), _) | (_, Err(class)) => Cell::empty(ix, iy, x, y, class),
+                });
+            }
+        } else if let (Some(f), AxisKind::Radius) = (&self.fast, along) {
+            // Parameters fixed along the line: batch the metric functions over all its radii.
+            let (_, _, x0, y0) = xy(0);
+            self.point(x0, y0, &mut params);
+            let (axis, other) = if spec.lines_are_columns() { (&spec.y, x0) } else { (&spec.x, y0) };
+            scratch.xs.clear();
+            scratch.xs.extend((0..n).map(|jj| axis.value(jj)));
+            f.eval_line_coefficients(&params, scratch);
+            for jj in 0..n {
+                let (ix, iy) = spec.cell_index(i, jj);
+                let radius = scratch.xs[jj];
+                let (x, y) = if spec.lines_are_columns() { (other, radius) } else { (radius, other) };
+                emit(self.fast_cell(f, ix, iy, x, y, radius, f.line_result(scratch, jj), &params));
+            }
+        } else if let Some(f) = &self.fast.as_ref().filter(|_| spec.x.kind == AxisKind::Radius || spec.y.kind == AxisKind::Radius) {
+            // The line runs along a parameter: per point.
             for jj in 0..n {
                 let (ix, iy, x, y) = xy(jj);
-                let beta2 = if spec.x.kind == AxisKind::Beta2 { x } else { y };
-                emit(match res {
-                    Ok((sigma, p, c0, c1)) => self.radius_cell(ix, iy, x, y, radius, beta2, sigma, p, c0, c1),
+                let (radius, _) = self.point(x, y, &mut params);
+                emit(self.fast_cell(f, ix, iy, x, y, radius, static_coefficients(&f.shape, radius, &f.point_jets(radius, &params)), &params));
+            }
+        } else {
+            for jj in 0..n {
+                let (ix, iy, x, y) = xy(jj);
+                let (radius, _) = self.point(x, y, &mut params);
+                if radius.is_nan() {
+                    emit(self.statics_cell(ix, iy, x, y, &params));
+                    continue;
+                }
+                let j = Junction::with_params(self.s, params.clone());
+                emit(match static_point(&j, radius) {
+                    Ok((sigma, p, c0, c1)) => {
+                        let beta2 = match spec.beta2 {
+                            Beta2Source::Fixed(b) => b,
+                            _ => j.eos_at(num_dual::Dual64::new(sigma, 1.0), num_dual::Dual64::from).map(|d| d.eps).unwrap_or(f64::NAN),
+                        };
+                        let bits = energy_bits(EnergyConditions::evaluate(sigma, p, self.s.dimension));
+                        if beta2.is_finite() {
+                            self.radius_cell(ix, iy, x, y, radius, beta2, (sigma, p, c0, c1), bits)
+                        } else {
+                            Cell::empty(ix, iy, x, y, CellClass::NoStatic)
+                        }
+                    }
                     Err(class) => Cell::empty(ix, iy, x, y, class),
                 });
             }
-            return;
         }
-        for jj in 0..n {
-            let (ix, iy, x, y) = xy(jj);
-            let (radius, _) = self.point(x, y, &mut params);
-            if radius.is_nan() {
-                emit(self.statics_cell(ix, iy, x, y, &params));
-                continue;
-            }
-            let j = Junction::with_params(self.s, params.clone());
-            emit(match static_point(&j, radius) {
-                Ok((sigma, p, c0, c1)) => {
-                    let beta2 = match spec.beta2 {
-                        Beta2Source::Fixed(b) => b,
-                        _ => j.eos_at(num_dual::Dual64::new(sigma, 1.0), num_dual::Dual64::from).map(|d| d.eps).unwrap_or(f64::NAN),
-                    };
-                    if beta2.is_finite() {
-                        self.radius_cell(ix, iy, x, y, radius, beta2, sigma, p, c0, c1)
-                    } else {
-                        Cell::empty(ix, iy, x, y, CellClass::NoStatic)
-                    }
+        scratch.params = params;
+    }
+
+    /// A cell on the fast path from the jets at its radius.
+    #[allow(clippy::too_many_arguments)]
+    #[inline]
+    fn fast_cell(&self, f: &FastJunction, ix: usize, iy: usize, x: f64, y: f64, radius: f64, res: std::result::Result<StaticCoefficients, CellClass>, params: &[f64]) -> Cell {
+        match res {
+            Ok(c) => {
+                let beta2 = match self.spec.beta2 {
+                    Beta2Source::Fixed(b) => b,
+                    _ => f.law_slope(c.sigma, params),
+                };
+                if beta2.is_finite() {
+                    let bits = energy_bits(EnergyConditions::evaluate(c.sigma, c.pressure, self.s.dimension));
+                    self.radius_cell(ix, iy, x, y, radius, beta2, (c.sigma, c.pressure, c.c0, c.c1), bits)
+                } else {
+                    Cell::empty(ix, iy, x, y, CellClass::NoStatic)
                 }
-                Err(class) => Cell::empty(ix, iy, x, y, class),
-            });
+            }
+            Err(class) => Cell::empty(ix, iy, x, y, class),
         }
     }
 
+    /// A cell with a static shell: (sigma, p, c0, c1) at `radius`, classified at `beta2`.
     #[allow(clippy::too_many_arguments)]
     #[inline]
-    fn radius_cell(&self, ix: usize, iy: usize, x: f64, y: f64, radius: f64, beta2: f64, sigma: f64, p: f64, c0: f64, c1: f64) -> Cell {
+    fn radius_cell(&self, ix: usize, iy: usize, x: f64, y: f64, radius: f64, beta2: f64, v: (f64, f64, f64, f64), bits: u8) -> Cell {
+        let (sigma, p, c0, c1) = v;
         let (v2, class) = classify_v2(c0, c1, beta2);
         let crit = if c1.abs() > crate::junction::stability::SLOPE_TOL * c0.abs().max(c1.abs()) { -c0 / c1 } else { f64::NAN };
         Cell {
@@ -309,7 +394,7 @@ impl<'a> Evaluator<'a> {
             v2,
             beta2_critical: crit,
             class,
-            energy_bits: energy_bits(EnergyConditions::evaluate(sigma, p, self.s.dimension)),
+            energy_bits: bits,
             n_static: 1,
         }
     }

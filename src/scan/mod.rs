@@ -12,9 +12,10 @@
 //!   the radius range (stable if any is stable, else unstable/marginal if any, else no static shell).
 
 pub mod cell;
+pub mod fast;
 pub mod grid;
 
-pub use cell::{Cell, CellClass, Summary};
+pub use cell::{Cell, CellClass, Method, Summary};
 pub use grid::{Axis, AxisKind, MapSpec};
 
 use crate::error::Result;
@@ -23,19 +24,34 @@ use rayon::prelude::*;
 
 /// Evaluate the lines `lines` of the map (outer-axis indices), in order, in parallel.
 pub fn evaluate_lines(s: &Scenario, spec: &MapSpec, lines: std::ops::Range<usize>) -> Result<Vec<Vec<Cell>>> {
-    let ev = cell::Evaluator::new(s, spec)?;
-    Ok(lines.into_par_iter().map(|i| ev.line(i)).collect())
+    evaluate_lines_with(s, spec, lines, Method::Fast)
 }
 
-/// Counts over the lines `lines` without storing cells (memory independent of the number of cells).
+/// As [`evaluate_lines`] with a chosen method (the generic one is the reference).
+pub fn evaluate_lines_with(s: &Scenario, spec: &MapSpec, lines: std::ops::Range<usize>, method: Method) -> Result<Vec<Vec<Cell>>> {
+    let ev = cell::Evaluator::with_method(s, spec, method)?;
+    Ok(lines.into_par_iter().map_init(fast::LineScratch::default, |sc, i| ev.line_with(i, sc)).collect())
+}
+
+/// Counts over the lines `lines` without storing cells: memory is O(threads x line length), independent of
+/// the number of lines. Counts are integers summed per line, so they do not depend on the thread count.
 pub fn summarize_lines(s: &Scenario, spec: &MapSpec, lines: std::ops::Range<usize>) -> Result<Summary> {
-    let ev = cell::Evaluator::new(s, spec)?;
+    summarize_lines_with(s, spec, lines, Method::Fast)
+}
+
+/// As [`summarize_lines`] with a chosen method.
+pub fn summarize_lines_with(s: &Scenario, spec: &MapSpec, lines: std::ops::Range<usize>, method: Method) -> Result<Summary> {
+    let ev = cell::Evaluator::with_method(s, spec, method)?;
     Ok(lines
         .into_par_iter()
-        .fold(Summary::default, |mut acc, i| {
-            ev.line_summary(i, &mut acc);
-            acc
-        })
+        .fold(
+            || (Summary::default(), fast::LineScratch::default()),
+            |(mut acc, mut sc), i| {
+                ev.line_summary_with(i, &mut acc, &mut sc);
+                (acc, sc)
+            },
+        )
+        .map(|(acc, _)| acc)
         .reduce(Summary::default, |a, b| a.merge(&b)))
 }
 

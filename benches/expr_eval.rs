@@ -25,7 +25,8 @@ fn bench(c: &mut Criterion) {
     let mut group = c.benchmark_group("expr_eval");
     group.throughput(Throughput::Elements(POINTS as u64));
     group.sample_size(10).warm_up_time(Duration::from_millis(500)).measurement_time(Duration::from_secs(2));
-    let (mut f, mut df, mut d2f, mut d3f) = (vec![0.0; POINTS], vec![0.0; POINTS], vec![0.0; POINTS], vec![0.0; POINTS]);
+    let (mut f, mut df, mut d2f, mut d3f) =
+        (vec![0.0; POINTS], vec![0.0; POINTS], vec![0.0; POINTS], vec![0.0; POINTS]);
     for (name, e, ps) in cases() {
         let tape = e.tape();
         group.bench_function(BenchmarkId::new("d2_tree_per_point", name), |b| {

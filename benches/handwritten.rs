@@ -97,8 +97,14 @@ fn main() {
     let (j2, js2) = pool(2).install(|| best_of(runs, || summarize_lines(&s, &spec, 0..N).expect("map")));
     assert_eq!(hs, hs2);
     assert_eq!(js, js2, "junctura's counts depend on the thread count");
-    println!("counts hand-written: stable {} unstable {} marginal {} inside_horizon {} null_energy {}", hs.stable_cells, hs.unstable_cells, hs.marginal_cells, hs.inside_horizon_cells, hs.null_energy_cells);
-    println!("counts junctura:     stable {} unstable {} marginal {} inside_horizon {} null_energy {}", js.stable_cells, js.unstable_cells, js.marginal_cells, js.inside_horizon_cells, js.null_energy_cells);
+    println!(
+        "counts hand-written: stable {} unstable {} marginal {} inside_horizon {} null_energy {}",
+        hs.stable_cells, hs.unstable_cells, hs.marginal_cells, hs.inside_horizon_cells, hs.null_energy_cells
+    );
+    println!(
+        "counts junctura:     stable {} unstable {} marginal {} inside_horizon {} null_energy {}",
+        js.stable_cells, js.unstable_cells, js.marginal_cells, js.inside_horizon_cells, js.null_energy_cells
+    );
     println!("counts_equal {}", hs == js);
     println!("handwritten_1t_s {h1:.4}");
     println!("handwritten_2t_s {h2:.4}");

@@ -19,8 +19,14 @@ fn bench(c: &mut Criterion) {
     let r_plus = |q: f64| 1.0 + (1.0 - q * q).sqrt();
     let ax = |name: &str, lo: f64, hi: f64| Axis::new(&s, name, lo, hi, N).expect("axis");
     let maps = [
-        ("radius_beta2", MapSpec::new(&s, ax("radius", 1.05 * r_plus(0.5), 10.0), ax("beta2", -3.0, 3.0), None, (1.0, 10.0))),
-        ("radius_q", MapSpec::new(&s, ax("radius", 1.05 * r_plus(0.95), 10.0), ax("q", 0.0, 0.95), Some(-0.5), (1.0, 10.0))),
+        (
+            "radius_beta2",
+            MapSpec::new(&s, ax("radius", 1.05 * r_plus(0.5), 10.0), ax("beta2", -3.0, 3.0), None, (1.0, 10.0)),
+        ),
+        (
+            "radius_q",
+            MapSpec::new(&s, ax("radius", 1.05 * r_plus(0.95), 10.0), ax("q", 0.0, 0.95), Some(-0.5), (1.0, 10.0)),
+        ),
     ];
     let mut group = c.benchmark_group("map");
     group.throughput(Throughput::Elements((N * N) as u64));
@@ -30,7 +36,9 @@ fn bench(c: &mut Criterion) {
         let spec = spec.expect("map spec");
         for (label, method) in [("fast", Method::Fast), ("generic", Method::Generic)] {
             group.bench_function(BenchmarkId::new(label, name), |b| {
-                b.iter(|| pool.install(|| black_box(summarize_lines_with(&s, &spec, 0..spec.n_lines(), method).expect("map"))))
+                b.iter(|| {
+                    pool.install(|| black_box(summarize_lines_with(&s, &spec, 0..spec.n_lines(), method).expect("map")))
+                })
             });
         }
     }

@@ -152,4 +152,3 @@ mod tests {
         assert!(e.message.contains("/nonexistent-folder/x.csv"));
     }
 }
-

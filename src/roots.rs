@@ -73,9 +73,7 @@ pub fn sample_points(lo: f64, hi: f64, n: usize) -> Vec<f64> {
     let n = n.max(2);
     if lo > 0.0 && hi / lo > 100.0 {
         let (a, b) = (lo.ln(), hi.ln());
-        (0..n)
-            .map(|i| if i == n - 1 { hi } else { (a + (b - a) * i as f64 / (n - 1) as f64).exp() })
-            .collect()
+        (0..n).map(|i| if i == n - 1 { hi } else { (a + (b - a) * i as f64 / (n - 1) as f64).exp() }).collect()
     } else {
         (0..n).map(|i| if i == n - 1 { hi } else { lo + (hi - lo) * i as f64 / (n - 1) as f64 }).collect()
     }
@@ -142,7 +140,8 @@ where
     G: Fn(f64) -> Option<(f64, f64)>,
 {
     let xs = sample_points(lo, hi, opts.samples);
-    let vals: Vec<Option<(f64, f64)>> = xs.iter().map(|&x| f(x).filter(|v| v.0.is_finite() && v.1.is_finite())).collect();
+    let vals: Vec<Option<(f64, f64)>> =
+        xs.iter().map(|&x| f(x).filter(|v| v.0.is_finite() && v.1.is_finite())).collect();
     // Typical scale of |f| for residual tests: median of the finite sampled values.
     let mut mags: Vec<f64> = vals.iter().flatten().map(|v| v.0.abs()).filter(|v| *v > 0.0).collect();
     mags.sort_by(|a, b| a.total_cmp(b));
@@ -218,7 +217,12 @@ mod tests {
 
     #[test]
     fn finds_all_simple_roots() {
-        let f = |x: f64| Some(((x - 1.0) * (x - 2.0) * (x - 3.5), (x - 2.0) * (x - 3.5) + (x - 1.0) * (x - 3.5) + (x - 1.0) * (x - 2.0)));
+        let f = |x: f64| {
+            Some((
+                (x - 1.0) * (x - 2.0) * (x - 3.5),
+                (x - 2.0) * (x - 3.5) + (x - 1.0) * (x - 3.5) + (x - 1.0) * (x - 2.0),
+            ))
+        };
         let s = find_roots(&f, none(), 0.5, 5.0, &RootOptions::default());
         let xs: Vec<f64> = s.roots.iter().map(|r| r.x).collect();
         assert_eq!(xs.len(), 3);

@@ -119,7 +119,8 @@ fn split_number_unit(text: &str) -> Option<(f64, &str)> {
 /// Parse a mass with its unit: `Msun` (solar masses, IAU 2015 nominal), `kg`, `g`, or `mP` (Planck masses).
 /// `1Msun`, `1e30kg`, `2.5e-8kg`, `3 Msun` are all accepted. Returns kilograms.
 pub fn parse_mass(text: &str) -> Result<f64> {
-    let hint = "write a number followed by a unit: Msun (solar masses), kg, g or mP (Planck masses), e.g. 1Msun or 1e30kg";
+    let hint =
+        "write a number followed by a unit: Msun (solar masses), kg, g or mP (Planck masses), e.g. 1Msun or 1e30kg";
     let (v, unit) = split_number_unit(text)
         .ok_or_else(|| Error::input(format!("--mass '{text}': no number found")).with_hint(hint))?;
     let kg = match unit {

@@ -44,7 +44,13 @@ struct Case {
     needles: Vec<&'static str>,
 }
 
-fn case(name: &'static str, scenario: Option<String>, args: &[&'static str], code: i32, needles: &[&'static str]) -> Case {
+fn case(
+    name: &'static str,
+    scenario: Option<String>,
+    args: &[&'static str],
+    code: i32,
+    needles: &[&'static str],
+) -> Case {
     Case { name, scenario, args: args.to_vec(), code, needles: needles.to_vec() }
 }
 
@@ -53,58 +59,286 @@ fn catalogue() -> Vec<Case> {
     let derive4 = &["derive", "{S}", "--radius", "4"][..];
     vec![
         // Scenario files.
-        case("malformed_toml", Some("name = \"t\"\n[minus\nA = \"1\"\n".into()), derive4, 2, &["{S}:2:", "table header"]),
-        case("unknown_key", Some(edit("keep = \"outer\"\n[plus]", "keep = \"outer\"\nfoo = 1\n[plus]")), derive4, 2, &["{S}:8:1", "foo"]),
-        case("missing_side", Some(BASE.split("[plus]").next().unwrap_or("").to_string()), derive4, 2, &["{S}", "[plus] side is missing"]),
+        case(
+            "malformed_toml",
+            Some("name = \"t\"\n[minus\nA = \"1\"\n".into()),
+            derive4,
+            2,
+            &["{S}:2:", "table header"],
+        ),
+        case(
+            "unknown_key",
+            Some(edit("keep = \"outer\"\n[plus]", "keep = \"outer\"\nfoo = 1\n[plus]")),
+            derive4,
+            2,
+            &["{S}:8:1", "foo"],
+        ),
+        case(
+            "missing_side",
+            Some(BASE.split("[plus]").next().unwrap_or("").to_string()),
+            derive4,
+            2,
+            &["{S}", "[plus] side is missing"],
+        ),
         case("unknown_keep", Some(edit("keep = \"outer\"", "keep = \"outside\"")), derive4, 2, &["{S}:7:8", "outside"]),
-        case("dimension_below_four", Some(edit("[parameters]", "dimension = 3\n[parameters]")), derive4, 2, &["{S}:2:13", "dimension = 3"]),
+        case(
+            "dimension_below_four",
+            Some(edit("[parameters]", "dimension = 3\n[parameters]")),
+            derive4,
+            2,
+            &["{S}:2:13", "dimension = 3"],
+        ),
         case("non_numeric_parameter", Some(edit("m = 1.0", "m = \"one\"")), derive4, 2, &["{S}:3:1", "parameter 'm'"]),
-        case("nan_parameter", Some(edit("m = 1.0", "m = nan")), derive4, 2, &["{S}:3:1", "parameter 'm'", "not a finite"]),
-        case("inf_parameter", Some(edit("m = 1.0", "m = inf")), derive4, 2, &["{S}:3:1", "parameter 'm'", "not a finite"]),
-        case("expression_syntax_error", Some(edit("A = \"1 - 2*m/r\"", "A = \"1 - 2*m/ * r\"")), derive4, 2, &["{S}:6:15", "[minus] A"]),
-        case("unknown_function", Some(edit("A = \"1 - 2*m/r\"", "A = \"1 - 2*m/r + foo(r)\"")), derive4, 2, &["{S}:6:18", "unknown function 'foo'"]),
-        case("unknown_name", Some(edit("A = \"1 - 2*m/r\"", "A = \"1 - 2*mm/r\"")), derive4, 2, &["{S}:6:12", "unknown name 'mm'", "did you mean 'm'"]),
-        case("number_literal_overflows", Some(edit("A = \"1 - 2*m/r\"", "A = \"1 - 2*m/r + 1e999\"")), derive4, 2, &["{S}:6:18", "1e999"]),
-        case("expression_nested_too_deep", Some(edit("A = \"1 - 2*m/r\"", &format!("A = \"{}r{}\"", "(".repeat(5000), ")".repeat(5000)))), derive4, 2, &["{S}:6:", "nested"]),
-        case("unknown_shell_kind", Some(edit("pressure", "kind = \"null\"\npressure")), derive4, 2, &["{S}:12:8", "unknown shell kind"]),
+        case(
+            "nan_parameter",
+            Some(edit("m = 1.0", "m = nan")),
+            derive4,
+            2,
+            &["{S}:3:1", "parameter 'm'", "not a finite"],
+        ),
+        case(
+            "inf_parameter",
+            Some(edit("m = 1.0", "m = inf")),
+            derive4,
+            2,
+            &["{S}:3:1", "parameter 'm'", "not a finite"],
+        ),
+        case(
+            "expression_syntax_error",
+            Some(edit("A = \"1 - 2*m/r\"", "A = \"1 - 2*m/ * r\"")),
+            derive4,
+            2,
+            &["{S}:6:15", "[minus] A"],
+        ),
+        case(
+            "unknown_function",
+            Some(edit("A = \"1 - 2*m/r\"", "A = \"1 - 2*m/r + foo(r)\"")),
+            derive4,
+            2,
+            &["{S}:6:18", "unknown function 'foo'"],
+        ),
+        case(
+            "unknown_name",
+            Some(edit("A = \"1 - 2*m/r\"", "A = \"1 - 2*mm/r\"")),
+            derive4,
+            2,
+            &["{S}:6:12", "unknown name 'mm'", "did you mean 'm'"],
+        ),
+        case(
+            "number_literal_overflows",
+            Some(edit("A = \"1 - 2*m/r\"", "A = \"1 - 2*m/r + 1e999\"")),
+            derive4,
+            2,
+            &["{S}:6:18", "1e999"],
+        ),
+        case(
+            "expression_nested_too_deep",
+            Some(edit("A = \"1 - 2*m/r\"", &format!("A = \"{}r{}\"", "(".repeat(5000), ")".repeat(5000)))),
+            derive4,
+            2,
+            &["{S}:6:", "nested"],
+        ),
+        case(
+            "unknown_shell_kind",
+            Some(edit("pressure", "kind = \"null\"\npressure")),
+            derive4,
+            2,
+            &["{S}:12:8", "unknown shell kind"],
+        ),
         // Values that do not exist at the radius asked for.
-        case("division_by_zero_at_radius", Some(edit("A = \"1 - 2*m/r\"", "A = \"1 - 2*m/(r - 4)\"")), derive4, 3, &["{S}", "radius 4", "A of the minus side", "not finite"]),
-        case("log_of_negative_at_radius", Some(edit("A = \"1 - 2*m/r\"", "A = \"1 - 2*m/r + log(r - 5)\"")), derive4, 3, &["{S}", "A of the minus side", "log(r - 5)"]),
-        case("sqrt_of_negative_in_plus_b", Some(edit("keep = \"outer\"\n[shell]", "B = \"1 - 2*m/r + sqrt(r - 5)\"\nkeep = \"outer\"\n[shell]")), derive4, 3, &["{S}", "B of the plus side", "sqrt(r - 5)"]),
-        case("derivative_not_finite_at_radius", Some(edit("A = \"1 - 2*m/r\"", "A = \"1 - 2*m/r + sqrt(r - 4)\"")), derive4, 3, &["{S}", "first derivative of A of the minus side"]),
-        case("law_log_of_negative", Some(edit("w*sigma", "log(sigma)")), derive4, 3, &["{S}", "[shell] pressure", "log(sigma)"]),
-        case("moving_shell_division_by_zero", Some(edit("A = \"1 - 2*m/r\"", "A = \"1 - 2*m/(r - 4)\"")), &["derive", "{S}", "--radius", "4", "--velocity", "0.1"], 3, &["A of the minus side"]),
+        case(
+            "division_by_zero_at_radius",
+            Some(edit("A = \"1 - 2*m/r\"", "A = \"1 - 2*m/(r - 4)\"")),
+            derive4,
+            3,
+            &["{S}", "radius 4", "A of the minus side", "not finite"],
+        ),
+        case(
+            "log_of_negative_at_radius",
+            Some(edit("A = \"1 - 2*m/r\"", "A = \"1 - 2*m/r + log(r - 5)\"")),
+            derive4,
+            3,
+            &["{S}", "A of the minus side", "log(r - 5)"],
+        ),
+        case(
+            "sqrt_of_negative_in_plus_b",
+            Some(edit("keep = \"outer\"\n[shell]", "B = \"1 - 2*m/r + sqrt(r - 5)\"\nkeep = \"outer\"\n[shell]")),
+            derive4,
+            3,
+            &["{S}", "B of the plus side", "sqrt(r - 5)"],
+        ),
+        case(
+            "derivative_not_finite_at_radius",
+            Some(edit("A = \"1 - 2*m/r\"", "A = \"1 - 2*m/r + sqrt(r - 4)\"")),
+            derive4,
+            3,
+            &["{S}", "first derivative of A of the minus side"],
+        ),
+        case(
+            "law_log_of_negative",
+            Some(edit("w*sigma", "log(sigma)")),
+            derive4,
+            3,
+            &["{S}", "[shell] pressure", "log(sigma)"],
+        ),
+        case(
+            "moving_shell_division_by_zero",
+            Some(edit("A = \"1 - 2*m/r\"", "A = \"1 - 2*m/(r - 4)\"")),
+            &["derive", "{S}", "--radius", "4", "--velocity", "0.1"],
+            3,
+            &["A of the minus side"],
+        ),
         // Command-line values.
-        case("set_unknown_name", base(), &["derive", "{S}", "--radius", "4", "--set", "zz=1"], 2, &["--set zz=1", "unknown parameter 'zz'"]),
-        case("set_non_numeric", base(), &["derive", "{S}", "--radius", "4", "--set", "m=abc"], 2, &["--set m=abc", "not a number"]),
-        case("set_nan", base(), &["derive", "{S}", "--radius", "4", "--set", "m=nan"], 2, &["--set m=nan", "not a finite"]),
-        case("set_without_value", base(), &["derive", "{S}", "--radius", "4", "--set", "m"], 2, &["--set m", "NAME=VALUE"]),
+        case(
+            "set_unknown_name",
+            base(),
+            &["derive", "{S}", "--radius", "4", "--set", "zz=1"],
+            2,
+            &["--set zz=1", "unknown parameter 'zz'"],
+        ),
+        case(
+            "set_non_numeric",
+            base(),
+            &["derive", "{S}", "--radius", "4", "--set", "m=abc"],
+            2,
+            &["--set m=abc", "not a number"],
+        ),
+        case(
+            "set_nan",
+            base(),
+            &["derive", "{S}", "--radius", "4", "--set", "m=nan"],
+            2,
+            &["--set m=nan", "not a finite"],
+        ),
+        case(
+            "set_without_value",
+            base(),
+            &["derive", "{S}", "--radius", "4", "--set", "m"],
+            2,
+            &["--set m", "NAME=VALUE"],
+        ),
         case("radius_not_finite", base(), &["derive", "{S}", "--radius", "inf"], 2, &["--radius"]),
-        case("vary_lo_not_below_hi", base(), &["sweep", "{S}", "--vary", "w:-0.6:-1:5"], 2, &["--vary w:-0.6:-1:5", "LO must be smaller"]),
-        case("vary_zero_points", base(), &["sweep", "{S}", "--vary", "w:-1:-0.6:0"], 2, &["--vary", "N must be at least 1"]),
+        case(
+            "vary_lo_not_below_hi",
+            base(),
+            &["sweep", "{S}", "--vary", "w:-0.6:-1:5"],
+            2,
+            &["--vary w:-0.6:-1:5", "LO must be smaller"],
+        ),
+        case(
+            "vary_zero_points",
+            base(),
+            &["sweep", "{S}", "--vary", "w:-1:-0.6:0"],
+            2,
+            &["--vary", "N must be at least 1"],
+        ),
         case("vary_unknown_parameter", base(), &["sweep", "{S}", "--vary", "zz:0:1:5"], 2, &["zz"]),
-        case("x_lo_not_below_hi", base(), &["map", "{S}", "--x", "radius:3:2:5", "--y", "beta2:0:1:4", "--summary"], 2, &["--x radius:3:2:5", "LO must be smaller"]),
-        case("y_zero_points", base(), &["map", "{S}", "--x", "radius:2:3:5", "--y", "beta2:0:1:0", "--summary"], 2, &["--y", "N must be at least 1"]),
-        case("x_nan_bound", base(), &["map", "{S}", "--x", "radius:nan:3:5", "--y", "beta2:0:1:4", "--summary"], 2, &["--x", "not finite"]),
+        case(
+            "x_lo_not_below_hi",
+            base(),
+            &["map", "{S}", "--x", "radius:3:2:5", "--y", "beta2:0:1:4", "--summary"],
+            2,
+            &["--x radius:3:2:5", "LO must be smaller"],
+        ),
+        case(
+            "y_zero_points",
+            base(),
+            &["map", "{S}", "--x", "radius:2:3:5", "--y", "beta2:0:1:0", "--summary"],
+            2,
+            &["--y", "N must be at least 1"],
+        ),
+        case(
+            "x_nan_bound",
+            base(),
+            &["map", "{S}", "--x", "radius:nan:3:5", "--y", "beta2:0:1:4", "--summary"],
+            2,
+            &["--x", "not finite"],
+        ),
         case("from_not_below_to", base(), &["statics", "{S}", "--from", "5", "--to", "3"], 2, &["--from 5 --to 3"]),
         case("from_not_positive", base(), &["statics", "{S}", "--from", "0", "--to", "3"], 2, &["--from 0"]),
-        case("shard_out_of_range", base(), &["map", "{S}", "--x", "radius:2.5:3:5", "--y", "beta2:0:1:4", "--summary", "--shard", "5/4"], 2, &["--shard 5/4"]),
+        case(
+            "shard_out_of_range",
+            base(),
+            &["map", "{S}", "--x", "radius:2.5:3:5", "--y", "beta2:0:1:4", "--summary", "--shard", "5/4"],
+            2,
+            &["--shard 5/4"],
+        ),
         // Horizons.
-        case("radius_inside_horizon_for_outer_keep", base(), &["derive", "{S}", "--radius", "1.5"], 3, &["radius 1.5", "minus side", "T-region"]),
-        case("radius_exactly_at_horizon", base(), &["derive", "{S}", "--radius", "2"], 3, &["radius 2", "horizon", "minus side"]),
-        case("tune_radius_exactly_at_horizon", base(), &["tune", "{S}", "--solve", "w", "--radius", "2"], 3, &["radius 2", "horizon"]),
+        case(
+            "radius_inside_horizon_for_outer_keep",
+            base(),
+            &["derive", "{S}", "--radius", "1.5"],
+            3,
+            &["radius 1.5", "minus side", "T-region"],
+        ),
+        case(
+            "radius_exactly_at_horizon",
+            base(),
+            &["derive", "{S}", "--radius", "2"],
+            3,
+            &["radius 2", "horizon", "minus side"],
+        ),
+        case(
+            "tune_radius_exactly_at_horizon",
+            base(),
+            &["tune", "{S}", "--solve", "w", "--radius", "2"],
+            3,
+            &["radius 2", "horizon"],
+        ),
         // Files.
-        case("missing_file", None, &["derive", "{D}/absent.toml", "--radius", "4"], 4, &["absent.toml", "No such file"]),
+        case(
+            "missing_file",
+            None,
+            &["derive", "{D}/absent.toml", "--radius", "4"],
+            4,
+            &["absent.toml", "No such file"],
+        ),
         case("unreadable_file_is_a_folder", None, &["check", "{D}"], 4, &["Is a directory"]),
-        case("map_out_under_a_regular_file", base(), &["map", "{S}", "--x", "radius:2.5:3:3", "--y", "beta2:0:1:3", "--out", "{F}/sub"], 4, &["{F}/sub"]),
+        case(
+            "map_out_under_a_regular_file",
+            base(),
+            &["map", "{S}", "--x", "radius:2.5:3:3", "--y", "beta2:0:1:3", "--out", "{F}/sub"],
+            4,
+            &["{F}/sub"],
+        ),
         case("report_out_under_a_regular_file", base(), &["report", "{S}", "--out", "{F}/sub"], 4, &["{F}/sub"]),
-        case("merge_missing_part", None, &["merge", "{D}/map.part-1-of-2.json", "--out", "{D}/merged"], 4, &["map.part-1-of-2.json"]),
+        case(
+            "merge_missing_part",
+            None,
+            &["merge", "{D}/map.part-1-of-2.json", "--out", "{D}/merged"],
+            4,
+            &["map.part-1-of-2.json"],
+        ),
         case("chain_missing_file", None, &["chain", "{D}/absent-chain.toml"], 4, &["absent-chain.toml"]),
         // Sizes that would not fit.
-        case("huge_map_to_files_is_refused", base(), &["map", "{S}", "--x", "radius:2:3:100000000", "--y", "beta2:0:1:100000000", "--out", "{D}/huge"], 2, &["cells"]),
-        case("huge_map_summary_is_refused", base(), &["map", "{S}", "--x", "radius:2:3:100000000", "--y", "beta2:0:1:100000000", "--summary"], 2, &["cells"]),
-        case("long_map_line_to_files_is_refused", base(), &["map", "{S}", "--x", "radius:2.5:3:20000000", "--y", "beta2:0:1:2", "--out", "{D}/long"], 2, &["20000000 points", "--summary"]),
-        case("huge_chain_is_refused", None, &["chain", "{R}/scenarios/chains/bounce-chain.toml", "--crossings", "1000000000000"], 2, &["1000000000000 crossings"]),
+        case(
+            "huge_map_to_files_is_refused",
+            base(),
+            &["map", "{S}", "--x", "radius:2:3:100000000", "--y", "beta2:0:1:100000000", "--out", "{D}/huge"],
+            2,
+            &["cells"],
+        ),
+        case(
+            "huge_map_summary_is_refused",
+            base(),
+            &["map", "{S}", "--x", "radius:2:3:100000000", "--y", "beta2:0:1:100000000", "--summary"],
+            2,
+            &["cells"],
+        ),
+        case(
+            "long_map_line_to_files_is_refused",
+            base(),
+            &["map", "{S}", "--x", "radius:2.5:3:20000000", "--y", "beta2:0:1:2", "--out", "{D}/long"],
+            2,
+            &["20000000 points", "--summary"],
+        ),
+        case(
+            "huge_chain_is_refused",
+            None,
+            &["chain", "{R}/scenarios/chains/bounce-chain.toml", "--crossings", "1000000000000"],
+            2,
+            &["1000000000000 crossings"],
+        ),
         case("huge_sweep_is_refused", base(), &["sweep", "{S}", "--vary", "w:-1:-0.6:100000000"], 2, &["--vary"]),
     ]
 }
@@ -158,7 +392,13 @@ fn every_bad_input_fails_cleanly_with_its_exit_code_and_location() {
             failures.push(format!("{}: {}\n  args: {args:?}\n  stderr: {err}", c.name, why.join("; ")));
         }
     }
-    assert!(failures.is_empty(), "{} of {} bad-input cases failed:\n{}", failures.len(), cases.len(), failures.join("\n"));
+    assert!(
+        failures.is_empty(),
+        "{} of {} bad-input cases failed:\n{}",
+        failures.len(),
+        cases.len(),
+        failures.join("\n")
+    );
 }
 
 #[test]
@@ -177,7 +417,10 @@ fn statics_over_a_range_inside_the_horizon_says_why_nothing_was_found() {
     let tmp = tempfile::tempdir().unwrap();
     let p = tmp.path().join("inside.toml");
     std::fs::write(&p, BASE).unwrap();
-    let out = bin().args(["statics", p.to_str().unwrap(), "--from", "1", "--to", "1.8", "--format", "json"]).output().unwrap();
+    let out = bin()
+        .args(["statics", p.to_str().unwrap(), "--from", "1", "--to", "1.8", "--format", "json"])
+        .output()
+        .unwrap();
     assert!(out.status.success());
     let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
     assert_eq!(v["static_radii"].as_array().unwrap().len(), 0);

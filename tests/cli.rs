@@ -15,7 +15,8 @@ fn root() -> PathBuf {
 fn run_json(args: &[&str]) -> Value {
     let out = bin().args(args).output().unwrap();
     assert!(out.status.success(), "{args:?}: {}", String::from_utf8_lossy(&out.stderr));
-    serde_json::from_slice(&out.stdout).unwrap_or_else(|e| panic!("{args:?}: {e}\n{}", String::from_utf8_lossy(&out.stdout)))
+    serde_json::from_slice(&out.stdout)
+        .unwrap_or_else(|e| panic!("{args:?}: {e}\n{}", String::from_utf8_lossy(&out.stdout)))
 }
 
 /// Scenario files shipped in scenarios/ (chain files live in scenarios/chains/ and have their own schema).
@@ -64,7 +65,9 @@ fn every_shipped_scenario_runs_check_derive_and_statics() {
         let r = usable_radius(&check, timelike).unwrap_or_else(|| panic!("{p}: no usable radius"));
         let d = run_json(&["derive", p, "--radius", &r.to_string(), "--format", "json"]);
         if timelike {
-            for key in ["radius", "sigma", "pressure", "shell_mass", "beta2_critical", "stable_when", "energy_conditions"] {
+            for key in
+                ["radius", "sigma", "pressure", "shell_mass", "beta2_critical", "stable_when", "energy_conditions"]
+            {
                 assert!(d.get(key).is_some(), "{p}: derive JSON lacks {key}");
             }
             for key in ["null", "weak", "strong", "dominant"] {
@@ -95,7 +98,8 @@ fn every_shipped_scenario_runs_check_derive_and_statics() {
 fn check_reports_reissner_nordstrom_horizons_and_photon_orbit() {
     let p = root().join("scenarios/reissner-nordstrom-wormhole.toml");
     let v = run_json(&["check", p.to_str().unwrap(), "--format", "json", "--set", "q=0.8"]);
-    let hs: Vec<f64> = v["plus"]["horizons"].as_array().unwrap().iter().map(|h| h["radius"].as_f64().unwrap()).collect();
+    let hs: Vec<f64> =
+        v["plus"]["horizons"].as_array().unwrap().iter().map(|h| h["radius"].as_f64().unwrap()).collect();
     assert_eq!(hs.len(), 2);
     assert!((hs[0] - 0.4).abs() < 1e-12 && (hs[1] - 1.6).abs() < 1e-12, "{hs:?}");
     let ph = v["plus"]["photon_orbits"][0].as_f64().unwrap();
@@ -118,7 +122,18 @@ fn derive_json_for_the_schwarzschild_wormhole_matches_poisson_visser() {
 fn tune_puts_the_wormhole_at_four_m() {
     // w = -(1 - M/a)/(2(1 - 2M/a)) = -0.75 at a = 4M (from the static values of Poisson & Visser 1995).
     let p = root().join("scenarios/schwarzschild-wormhole-linear.toml");
-    let v = run_json(&["tune", p.to_str().unwrap(), "--solve", "w", "--radius", "4", "--set", "w=-0.6", "--format", "json"]);
+    let v = run_json(&[
+        "tune",
+        p.to_str().unwrap(),
+        "--solve",
+        "w",
+        "--radius",
+        "4",
+        "--set",
+        "w=-0.6",
+        "--format",
+        "json",
+    ]);
     let sols = v["solutions"].as_array().unwrap();
     assert_eq!(sols.len(), 1);
     assert!((sols[0]["w"].as_f64().unwrap() + 0.75).abs() < 1e-12);
@@ -129,7 +144,18 @@ fn tune_puts_the_wormhole_at_four_m() {
 #[test]
 fn sweep_keeps_one_branch_through_the_fold() {
     let p = root().join("scenarios/gravastar-linear.toml");
-    let v = run_json(&["sweep", p.to_str().unwrap(), "--vary", "w:0.2:1.2:11", "--from", "2.01", "--to", "20", "--format", "json"]);
+    let v = run_json(&[
+        "sweep",
+        p.to_str().unwrap(),
+        "--vary",
+        "w:0.2:1.2:11",
+        "--from",
+        "2.01",
+        "--to",
+        "20",
+        "--format",
+        "json",
+    ]);
     let branches = v["branches"].as_array().unwrap();
     assert_eq!(branches.len(), 1, "{v}");
     let b = &branches[0];
@@ -179,7 +205,6 @@ fn broken_pipe_is_quiet() {
     assert!(!err.contains("panicked"), "{err}");
 }
 
-
 /// Every shipped scenario with a law runs `evolve` from each of its static radii (small kick, short run), and
 /// the JSON summary carries its contract; the starting state satisfies the energy constraint by construction
 /// (angular junction condition at rest, Poisson 2004 ch. 3), so the reported drift is small.
@@ -195,7 +220,17 @@ fn every_shipped_scenario_with_a_law_runs_evolve() {
         for sr in st["static_radii"].as_array().unwrap() {
             let a0 = sr["radius"].as_f64().unwrap().to_string();
             let e = run_json(&["evolve", p, "--radius", &a0, "--kick", "1e-4", "--duration", "20", "--format", "json"]);
-            for key in ["stop", "stop_detail", "fate", "turning_points_count", "linear_period", "measured_period", "period_ratio", "max_constraint_drift", "static_radius"] {
+            for key in [
+                "stop",
+                "stop_detail",
+                "fate",
+                "turning_points_count",
+                "linear_period",
+                "measured_period",
+                "period_ratio",
+                "max_constraint_drift",
+                "static_radius",
+            ] {
                 assert!(e.get(key).is_some(), "{p}: evolve JSON lacks {key}");
             }
             assert!(["oscillates", "collapses", "expands", "stopped"].contains(&e["fate"].as_str().unwrap()));
@@ -212,8 +247,34 @@ fn evolve_writes_series_summary_and_figures() {
     let dir = tempfile::tempdir().unwrap();
     let p = root().join("scenarios/gravastar-linear.toml");
     let out = dir.path().join("ev");
-    let e = run_json(&["evolve", p.to_str().unwrap(), "--radius", "3.0638", "--kick", "0.01", "--duration", "100", "--format", "json", "--out", out.to_str().unwrap(), "--ensemble", "4", "--spread", "0.02"]);
-    for f in ["evolve.csv", "evolve.json", "evolve_radius.svg", "evolve_radius.pdf", "evolve_radius.png", "evolve_phase.svg", "evolve_phase.pdf", "evolve_phase.png"] {
+    let e = run_json(&[
+        "evolve",
+        p.to_str().unwrap(),
+        "--radius",
+        "3.0638",
+        "--kick",
+        "0.01",
+        "--duration",
+        "100",
+        "--format",
+        "json",
+        "--out",
+        out.to_str().unwrap(),
+        "--ensemble",
+        "4",
+        "--spread",
+        "0.02",
+    ]);
+    for f in [
+        "evolve.csv",
+        "evolve.json",
+        "evolve_radius.svg",
+        "evolve_radius.pdf",
+        "evolve_radius.png",
+        "evolve_phase.svg",
+        "evolve_phase.pdf",
+        "evolve_phase.png",
+    ] {
         assert!(out.join(f).is_file(), "missing {f}");
     }
     let csv = std::fs::read_to_string(out.join("evolve.csv")).unwrap();
@@ -236,12 +297,24 @@ fn evolve_writes_series_summary_and_figures() {
 fn evolve_refuses_a_radius_that_is_not_static() {
     let p = root().join("scenarios/gravastar-linear.toml");
     let p = p.to_str().unwrap();
-    fails_with(&["evolve", p, "--radius", "2.7", "--kick", "0.01", "--duration", "10"], 2, &["not a static radius", "junctura statics"]);
+    fails_with(
+        &["evolve", p, "--radius", "2.7", "--kick", "0.01", "--duration", "10"],
+        2,
+        &["not a static radius", "junctura statics"],
+    );
     fails_with(&["evolve", p, "--radius", "1.5", "--kick", "0.01", "--duration", "10"], 3, &["--radius 1.5"]);
     fails_with(&["evolve", p, "--radius", "3.0638", "--kick", "0.01", "--duration", "-1"], 2, &["--duration"]);
     fails_with(&["evolve", p, "--radius", "3.0638", "--kick", "-2", "--duration", "10"], 3, &["--kick -2"]);
     let rn = root().join("scenarios/reissner-nordstrom-wormhole.toml");
-    fails_with(&["evolve", rn.to_str().unwrap(), "--radius", "3", "--kick", "0.01", "--duration", "10"], 2, &["no equation of state"]);
+    fails_with(
+        &["evolve", rn.to_str().unwrap(), "--radius", "3", "--kick", "0.01", "--duration", "10"],
+        2,
+        &["no equation of state"],
+    );
     let bw = root().join("scenarios/black-to-white-transition.toml");
-    fails_with(&["evolve", bw.to_str().unwrap(), "--radius", "1", "--kick", "0.01", "--duration", "10"], 2, &["timelike"]);
+    fails_with(
+        &["evolve", bw.to_str().unwrap(), "--radius", "1", "--kick", "0.01", "--duration", "10"],
+        2,
+        &["timelike"],
+    );
 }

@@ -64,13 +64,8 @@ fn derivatives_match_symbolic_reference() {
 #[test]
 fn reference_covers_every_function_and_operator() {
     let doc = golden();
-    let all: String = doc["cases"]
-        .as_array()
-        .expect("cases")
-        .iter()
-        .filter_map(|c| c["expr"].as_str())
-        .collect::<Vec<_>>()
-        .join(" ");
+    let all: String =
+        doc["cases"].as_array().expect("cases").iter().filter_map(|c| c["expr"].as_str()).collect::<Vec<_>>().join(" ");
     for needle in
         ["sqrt(", "exp(", "log(", "sin(", "cos(", "tan(", "sinh(", "cosh(", "tanh(", "abs(", "pi", "^-", "-r^2", "/"]
     {

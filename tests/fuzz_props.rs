@@ -14,11 +14,7 @@ fn params() -> Vec<String> {
 
 /// Text biased toward the parser's alphabet, plus arbitrary Unicode.
 fn expr_text() -> impl Strategy<Value = String> {
-    prop_oneof![
-        "[0-9a-z+*/^(). eE-]{0,40}",
-        "[rmqpisgtxhbcol0-9+\\-*/^() .]{0,60}",
-        any::<String>(),
-    ]
+    prop_oneof!["[0-9a-z+*/^(). eE-]{0,40}", "[rmqpisgtxhbcol0-9+\\-*/^() .]{0,60}", any::<String>(),]
 }
 
 /// A syntactically valid expression in r, m, q (depth-bounded).
@@ -32,9 +28,11 @@ fn valid_expr() -> impl Strategy<Value = String> {
         (0u32..6).prop_map(|n| n.to_string()),
     ];
     leaf.prop_recursive(6, 64, 2, |inner| {
-        let funcs = prop::sample::select(vec!["sqrt", "exp", "log", "sin", "cos", "tan", "sinh", "cosh", "tanh", "abs"]);
+        let funcs =
+            prop::sample::select(vec!["sqrt", "exp", "log", "sin", "cos", "tan", "sinh", "cosh", "tanh", "abs"]);
         prop_oneof![
-            (inner.clone(), prop::sample::select(vec!["+", "-", "*", "/", "^"]), inner.clone()).prop_map(|(a, o, b)| format!("({a}){o}({b})")),
+            (inner.clone(), prop::sample::select(vec!["+", "-", "*", "/", "^"]), inner.clone())
+                .prop_map(|(a, o, b)| format!("({a}){o}({b})")),
             (funcs, inner.clone()).prop_map(|(f, a)| format!("{f}({a})")),
             inner.prop_map(|a| format!("-({a})")),
         ]
@@ -143,7 +141,12 @@ fn deeply_nested_parentheses_do_not_overflow_the_stack() {
 
 #[test]
 fn long_chains_of_terms_and_signs_do_not_overflow_the_stack() {
-    for src in ["r+".repeat(100_000) + "r", "-".repeat(100_000) + "r", "r^".repeat(100_000) + "r", "sqrt(".repeat(50_000) + "r"] {
+    for src in [
+        "r+".repeat(100_000) + "r",
+        "-".repeat(100_000) + "r",
+        "r^".repeat(100_000) + "r",
+        "sqrt(".repeat(50_000) + "r",
+    ] {
         let e = Expr::parse(&src, "r", &params()).unwrap_err();
         assert!(e.message.contains("nested"), "{e}");
     }
@@ -176,7 +179,12 @@ fn large_integer_exponent_does_not_overflow_in_the_derivatives() {
         let d = e.derivatives(1.0, &[1.0, 0.5]);
         let want = [1.0, n, n * (n - 1.0), n * (n - 1.0) * (n - 2.0)];
         for k in 0..4 {
-            assert!((d[k] - want[k]).abs() <= 1e-12 * want[k].abs().max(1.0), "r^{n}, order {k}: {} vs {}", d[k], want[k]);
+            assert!(
+                (d[k] - want[k]).abs() <= 1e-12 * want[k].abs().max(1.0),
+                "r^{n}, order {k}: {} vs {}",
+                d[k],
+                want[k]
+            );
         }
     }
     let e = Expr::parse("555^5554^555^5554555", "r", &params()).unwrap();

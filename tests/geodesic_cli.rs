@@ -22,7 +22,16 @@ fn geodesic_static_shell_energy_and_keys() {
     // Static shell, flat inside, Schwarzschild outside: E_plus = E_minus sqrt(A_plus(R)/A_minus(R))
     // (physics notes; common practice) = 1.1 sqrt(1 - 2/4).
     let v = json(&["geodesic", "scenarios/star-shell.toml", "--radius", "4", "--energy", "1.1", "--format", "json"]);
-    for key in ["energy_minus", "energy_plus", "relative_lorentz_factor", "relative_lorentz_factor_check", "can_cross", "reason", "minus", "plus"] {
+    for key in [
+        "energy_minus",
+        "energy_plus",
+        "relative_lorentz_factor",
+        "relative_lorentz_factor_check",
+        "can_cross",
+        "reason",
+        "minus",
+        "plus",
+    ] {
         assert!(v.get(key).is_some(), "missing {key}");
     }
     let e = v["energy_plus"].as_f64().unwrap();
@@ -38,7 +47,16 @@ fn geodesic_static_shell_energy_and_keys() {
 #[test]
 fn geodesic_same_metric_keeps_energy_and_refusal_is_data() {
     // Same metric on both sides (a wormhole throat): E is unchanged (common practice).
-    let v = json(&["geodesic", "scenarios/reissner-nordstrom-wormhole.toml", "--radius", "3", "--energy", "0.95", "--format", "json"]);
+    let v = json(&[
+        "geodesic",
+        "scenarios/reissner-nordstrom-wormhole.toml",
+        "--radius",
+        "3",
+        "--energy",
+        "0.95",
+        "--format",
+        "json",
+    ]);
     assert_eq!(v["can_cross"], true);
     assert!((v["energy_plus"].as_f64().unwrap() - 0.95).abs() < 1e-14);
     let v = json(&["geodesic", "scenarios/star-shell.toml", "--radius", "4", "--energy", "0.5", "--format", "json"]);
@@ -50,7 +68,17 @@ fn geodesic_same_metric_keeps_energy_and_refusal_is_data() {
 #[test]
 fn geodesic_bounce_and_bad_input() {
     // Spacelike bounce at R = 1 from mass 1 to mass 0.9: E_plus = E sqrt((1.8 - 1)/(2 - 1)) (kept t-component).
-    let v = json(&["geodesic", "scenarios/bounce-stage.toml", "--radius", "1", "--energy", "0.9", "--null", "--format", "json"]);
+    let v = json(&[
+        "geodesic",
+        "scenarios/bounce-stage.toml",
+        "--radius",
+        "1",
+        "--energy",
+        "0.9",
+        "--null",
+        "--format",
+        "json",
+    ]);
     assert!((v["energy_plus"].as_f64().unwrap() - 0.9 * 0.8f64.sqrt()).abs() < 1e-14);
     assert!(v["relative_lorentz_factor"].is_null(), "light has no Lorentz factor");
     let out = run(&["geodesic", "scenarios/bounce-stage.toml", "--radius", "1.9", "--energy", "0.9"]);
@@ -64,7 +92,8 @@ fn geodesic_bounce_and_bad_input() {
 fn chain_demo_reaches_a_planck_length_and_writes_files() {
     let dir = tempfile::tempdir().unwrap();
     let out_dir = dir.path().to_str().unwrap();
-    let v = json(&["chain", "scenarios/chains/bounce-chain.toml", "--mass", "1Msun", "--format", "json", "--out", out_dir]);
+    let v =
+        json(&["chain", "scenarios/chains/bounce-chain.toml", "--mass", "1Msun", "--format", "json", "--out", out_dir]);
     for key in ["chain", "provenance", "rows", "first_within_areal", "first_within_proper", "threshold_m", "series"] {
         assert!(v.get(key).is_some(), "missing {key}");
     }
@@ -95,7 +124,8 @@ fn chain_demo_reaches_a_planck_length_and_writes_files() {
     assert!(lines.next().unwrap().starts_with("# junctura"));
     assert!(lines.next().unwrap().contains("areal_distance [m]"));
     assert_eq!(csv.lines().count(), 302);
-    let j: serde_json::Value = serde_json::from_str(&std::fs::read_to_string(Path::new(out_dir).join("bounce-chain.json")).unwrap()).unwrap();
+    let j: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(Path::new(out_dir).join("bounce-chain.json")).unwrap()).unwrap();
     assert_eq!(j["rows"].as_array().unwrap().len(), 300);
     // The figure of the approach to the horizon, in all three formats.
     for ext in ["svg", "pdf", "png"] {

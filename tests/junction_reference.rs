@@ -19,12 +19,8 @@ fn golden() -> Value {
 }
 
 fn scenario_of(case: &Value) -> Scenario {
-    let params: Vec<String> = case["parameters"]
-        .as_object()
-        .unwrap()
-        .iter()
-        .map(|(k, v)| format!("{k} = {}", v.as_f64().unwrap()))
-        .collect();
+    let params: Vec<String> =
+        case["parameters"].as_object().unwrap().iter().map(|(k, v)| format!("{k} = {}", v.as_f64().unwrap())).collect();
     let side = |name: &str| {
         let s = &case[name];
         format!(

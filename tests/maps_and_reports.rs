@@ -29,7 +29,15 @@ fn linspace(lo: f64, hi: f64, n: usize) -> Vec<f64> {
 fn map_counts_match_the_poisson_visser_criterion() {
     let p = root().join("scenarios/schwarzschild-wormhole-linear.toml");
     let (nx, ny) = (97, 61);
-    let out = ok(&["map", p.to_str().unwrap(), "--x", &format!("radius:1.5:9:{nx}"), "--y", &format!("beta2:-3:3:{ny}"), "--summary"]);
+    let out = ok(&[
+        "map",
+        p.to_str().unwrap(),
+        "--x",
+        &format!("radius:1.5:9:{nx}"),
+        "--y",
+        &format!("beta2:-3:3:{ny}"),
+        "--summary",
+    ]);
     let v: serde_json::Value = serde_json::from_str(&out).unwrap();
     let (mut stable, mut unstable, mut inside) = (0u64, 0u64, 0u64);
     for a in linspace(1.5, 9.0, nx) {
@@ -92,7 +100,8 @@ fn shards_merge_byte_identically() {
         assert!(x == y, "{f} differs between the whole and the merged run");
     }
     // A missing part is refused.
-    let out = bin().args(["merge", part_files[0].to_str().unwrap(), "--out", merged.to_str().unwrap()]).output().unwrap();
+    let out =
+        bin().args(["merge", part_files[0].to_str().unwrap(), "--out", merged.to_str().unwrap()]).output().unwrap();
     assert_eq!(out.status.code(), Some(2));
 }
 
@@ -150,8 +159,14 @@ fn demo_runs_and_its_pdfs_render() {
         eprintln!("note: pdftoppm not installed; PDF rendering not checked here (CI installs poppler-utils)");
         return;
     }
-    let out = Command::new("pdftoppm").args(["-png", "-r", "50", pdf.to_str().unwrap(), tmp.path().join("page").to_str().unwrap()]).output().unwrap();
+    let out = Command::new("pdftoppm")
+        .args(["-png", "-r", "50", pdf.to_str().unwrap(), tmp.path().join("page").to_str().unwrap()])
+        .output()
+        .unwrap();
     assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
-    let page = std::fs::read_dir(tmp.path()).unwrap().filter_map(|e| e.ok()).any(|e| e.file_name().to_string_lossy().starts_with("page"));
+    let page = std::fs::read_dir(tmp.path())
+        .unwrap()
+        .filter_map(|e| e.ok())
+        .any(|e| e.file_name().to_string_lossy().starts_with("page"));
     assert!(page, "pdftoppm wrote no page");
 }

@@ -140,7 +140,12 @@ fn nan_breaks_the_line_and_empty_series_are_fine() {
         x_label: "x".into(),
         y_label: "y".into(),
         series: vec![
-            Series { label: "gap".into(), points: vec![(0.0, 0.0), (1.0, 1.0), (2.0, y2), (3.0, 0.0), (4.0, 1.0)], style: LineStyle::Solid, colour: 1 },
+            Series {
+                label: "gap".into(),
+                points: vec![(0.0, 0.0), (1.0, 1.0), (2.0, y2), (3.0, 0.0), (4.0, 1.0)],
+                style: LineStyle::Solid,
+                colour: 1,
+            },
             Series { label: "empty".into(), points: vec![], style: LineStyle::Dashed, colour: 2 },
         ],
         provenance: "nan-gap".into(),

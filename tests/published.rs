@@ -114,7 +114,12 @@ fn israel_dust_shell() {
 /// for given w < -1/2 is a0 = M (1 + 4w)/(1 + 2w) (same source, solved for a).
 #[test]
 fn linear_law_wormhole_tuning_and_static_radius() {
-    let s = scenario(("1 - 2*m/r", "outer"), ("1 - 2*m/r", "outer"), "m = 1.0\nw = -0.6", "[shell]\npressure = \"w*sigma\"\n");
+    let s = scenario(
+        ("1 - 2*m/r", "outer"),
+        ("1 - 2*m/r", "outer"),
+        "m = 1.0\nw = -0.6",
+        "[shell]\npressure = \"w*sigma\"\n",
+    );
     let opts = StaticsOptions::default();
     let rep = tune_at_radius(&s, "w", 4.0, None, &opts).unwrap();
     assert_eq!(rep.solutions.len(), 1);
@@ -144,7 +149,12 @@ fn linear_law_wormhole_tuning_and_static_radius() {
 #[test]
 fn visser_wiltshire_gravastar_two_static_radii() {
     let (m, l, w) = (1.0, 0.05, 0.6);
-    let s = scenario(("1 - l*r^2/3", "inner"), ("1 - 2*m/r", "outer"), "m = 1.0\nl = 0.05\nw = 0.6", "[shell]\npressure = \"w*sigma\"\n");
+    let s = scenario(
+        ("1 - l*r^2/3", "inner"),
+        ("1 - 2*m/r", "outer"),
+        "m = 1.0\nl = 0.05\nw = 0.6",
+        "[shell]\npressure = \"w*sigma\"\n",
+    );
     let rep = find_static_radii(&s, 2.0001, 7.7, &StaticsOptions::default()).unwrap();
     assert_eq!(rep.static_radii.len(), 2);
     let j = Junction::new(&s);
@@ -171,7 +181,12 @@ fn visser_wiltshire_gravastar_two_static_radii() {
 /// there is a pole and must not be reported as a static radius.
 #[test]
 fn chaplygin_pole_is_not_a_static_radius() {
-    let s = scenario(("1 - l*r^2/3", "inner"), ("1 - 2*m/r", "outer"), "m = 1.0\nl = 0.05\nc = 0.001", "[shell]\npressure = \"-c/sigma\"\n");
+    let s = scenario(
+        ("1 - l*r^2/3", "inner"),
+        ("1 - 2*m/r", "outer"),
+        "m = 1.0\nl = 0.05\nc = 0.001",
+        "[shell]\npressure = \"-c/sigma\"\n",
+    );
     let rep = find_static_radii(&s, 2.01, 7.7, &StaticsOptions::default()).unwrap();
     let pole = (6.0f64 / 0.05).cbrt();
     assert!(rep.static_radii.iter().all(|r| (r.radius - pole).abs() > 1e-3), "{:?}", rep.static_radii);
@@ -183,8 +198,14 @@ fn chaplygin_pole_is_not_a_static_radius() {
 /// a linear law (where V'' = 0), beta^2 = w equals beta^2_crit.
 #[test]
 fn beta2_critical_equals_law_slope_at_a_fold() {
-    let s = scenario(("1 - l*r^2/3", "inner"), ("1 - 2*m/r", "outer"), "m = 1.0\nl = 0.05\nw = 0.6", "[shell]\npressure = \"w*sigma\"\n");
-    let rep = junctura::statics::tune::tune_marginal(&s, "w", 2.05, 4.0, Some((0.0, 2.0)), &StaticsOptions::default()).unwrap();
+    let s = scenario(
+        ("1 - l*r^2/3", "inner"),
+        ("1 - 2*m/r", "outer"),
+        "m = 1.0\nl = 0.05\nw = 0.6",
+        "[shell]\npressure = \"w*sigma\"\n",
+    );
+    let rep = junctura::statics::tune::tune_marginal(&s, "w", 2.05, 4.0, Some((0.0, 2.0)), &StaticsOptions::default())
+        .unwrap();
     assert_eq!(rep.solutions.len(), 1);
     let sol = &rep.solutions[0];
     let mut sc = s.clone();

@@ -108,7 +108,10 @@ fn a_static_radius_next_to_the_horizon_is_flagged() {
 fn assert_csv_clean(what: &str, text: &str, status: &str) {
     let mut lines = text.lines().filter(|l| !l.starts_with('#'));
     let header: Vec<&str> = lines.next().unwrap_or_else(|| panic!("{what}: no header")).split(',').collect();
-    let k = header.iter().position(|h| *h == status).unwrap_or_else(|| panic!("{what}: no '{status}' column in {header:?}"));
+    let k = header
+        .iter()
+        .position(|h| *h == status)
+        .unwrap_or_else(|| panic!("{what}: no '{status}' column in {header:?}"));
     let mut rows = 0;
     for line in lines {
         rows += 1;
@@ -116,7 +119,10 @@ fn assert_csv_clean(what: &str, text: &str, status: &str) {
         assert_eq!(fields.len(), header.len(), "{what}: {line}");
         for f in &fields {
             let t = f.trim().trim_matches('"').to_ascii_lowercase();
-            assert!(!matches!(t.as_str(), "nan" | "-nan" | "inf" | "-inf" | "+inf" | "infinity" | "-infinity"), "{what}: non-finite field in {line}");
+            assert!(
+                !matches!(t.as_str(), "nan" | "-nan" | "inf" | "-inf" | "+inf" | "infinity" | "-infinity"),
+                "{what}: non-finite field in {line}"
+            );
         }
         if fields.iter().any(|f| f.is_empty()) {
             assert!(!fields[k].trim_matches('"').is_empty(), "{what}: empty fields without a status: {line}");
@@ -138,7 +144,20 @@ fn data_files_of_runs_with_failing_cells_hold_no_nan_or_inf() {
     assert_csv_clean("map.csv", &csv, "class");
     // A parameter map where some cells have no static shell at all.
     let out2 = dir.path().join("map2");
-    ok(&["map", b, "--x", "w:-2:0.5:9", "--y", "m:0.5:1.5:3", "--from", "2.1", "--to", "10", "--out", out2.to_str().unwrap()]);
+    ok(&[
+        "map",
+        b,
+        "--x",
+        "w:-2:0.5:9",
+        "--y",
+        "m:0.5:1.5:3",
+        "--from",
+        "2.1",
+        "--to",
+        "10",
+        "--out",
+        out2.to_str().unwrap(),
+    ]);
     let csv = std::fs::read_to_string(out2.join("map.csv")).unwrap();
     assert!(csv.contains("no_static"), "{csv}");
     assert_csv_clean("map.csv (parameter axes)", &csv, "class");
@@ -146,11 +165,14 @@ fn data_files_of_runs_with_failing_cells_hold_no_nan_or_inf() {
     let chap = root().join("scenarios/gravastar-chaplygin.toml");
     let csv = String::from_utf8(ok(&["statics", chap.to_str().unwrap(), "--format", "csv"])).unwrap();
     assert_csv_clean("statics csv", &csv, "stability");
-    let csv = String::from_utf8(ok(&["sweep", b, "--vary", "w:-2:0.5:26", "--from", "2.1", "--to", "10", "--format", "csv"])).unwrap();
+    let csv =
+        String::from_utf8(ok(&["sweep", b, "--vary", "w:-2:0.5:26", "--from", "2.1", "--to", "10", "--format", "csv"]))
+            .unwrap();
     assert_csv_clean("sweep csv", &csv, "stability");
     // A chain of shell crossings.
     let chain = root().join("scenarios/chains/bounce-chain.toml");
-    let csv = String::from_utf8(ok(&["chain", chain.to_str().unwrap(), "--crossings", "40", "--format", "csv"])).unwrap();
+    let csv =
+        String::from_utf8(ok(&["chain", chain.to_str().unwrap(), "--crossings", "40", "--format", "csv"])).unwrap();
     assert_csv_clean("chain csv", &csv, "status");
 }
 
@@ -200,13 +222,29 @@ fn sigterm_during_map_out_leaves_no_partial_file() {
     let out = dir.path().join("big");
     // Parameter axes: every cell solves for static radii, so this runs for minutes unless stopped.
     let mut child = bin()
-        .args(["map", base.to_str().unwrap(), "--x", "w:-2:-0.6:3000", "--y", "m:0.5:1.5:3000", "--from", "2.1", "--to", "50", "--out"])
+        .args([
+            "map",
+            base.to_str().unwrap(),
+            "--x",
+            "w:-2:-0.6:3000",
+            "--y",
+            "m:0.5:1.5:3000",
+            "--from",
+            "2.1",
+            "--to",
+            "50",
+            "--out",
+        ])
         .arg(&out)
         .stdout(Stdio::null())
         .stderr(Stdio::piped())
         .spawn()
         .unwrap();
-    let has_temp = |d: &Path| std::fs::read_dir(d).map(|it| it.flatten().any(|e| e.file_name().to_string_lossy().contains(".tmp-"))).unwrap_or(false);
+    let has_temp = |d: &Path| {
+        std::fs::read_dir(d)
+            .map(|it| it.flatten().any(|e| e.file_name().to_string_lossy().contains(".tmp-")))
+            .unwrap_or(false)
+    };
     let start = Instant::now();
     while !has_temp(&out) {
         assert!(start.elapsed() < Duration::from_secs(60), "no temporary file appeared");
@@ -220,7 +258,8 @@ fn sigterm_during_map_out_leaves_no_partial_file() {
     let mut err = String::new();
     std::io::Read::read_to_string(child.stderr.as_mut().unwrap(), &mut err).unwrap();
     assert_eq!(status.code(), Some(143), "exit status {status:?}; stderr: {err}");
-    let names: Vec<String> = std::fs::read_dir(&out).unwrap().flatten().map(|e| e.file_name().to_string_lossy().to_string()).collect();
+    let names: Vec<String> =
+        std::fs::read_dir(&out).unwrap().flatten().map(|e| e.file_name().to_string_lossy().to_string()).collect();
     assert!(names.iter().all(|n| !n.contains(".tmp-") && n != "map.csv" && n != "map.json"), "left behind: {names:?}");
     assert!(!err.contains("panicked"), "{err}");
 }

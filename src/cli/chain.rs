@@ -124,7 +124,13 @@ pub fn run(args: Args) -> Result<()> {
     Ok(())
 }
 
-fn report<'a>(chain: &'a Chain, run: &'a ChainRun, crossings: usize, unit: Option<&MassUnit>, provenance: String) -> Report<'a> {
+fn report<'a>(
+    chain: &'a Chain,
+    run: &'a ChainRun,
+    crossings: usize,
+    unit: Option<&MassUnit>,
+    provenance: String,
+) -> Report<'a> {
     let to_m = |v: Option<f64>| unit.and_then(|u| v.map(|d| u.to_m(d)));
     let rows = run
         .rows
@@ -161,7 +167,10 @@ fn text(r: &Report, si: bool) -> String {
     if let Some(l) = r.length_unit_m {
         o.push_str(&format!("lengths in units of G M/c^2 = {l:.9e} m (and in m)\n"));
     }
-    o.push_str(&format!("\n{:>6} {:>5} {:>13} {:>13} {:>13} {:>13}", "cross", "stage", "E_plus", "r_max-r_h", "proper", "Lorentz"));
+    o.push_str(&format!(
+        "\n{:>6} {:>5} {:>13} {:>13} {:>13} {:>13}",
+        "cross", "stage", "E_plus", "r_max-r_h", "proper", "Lorentz"
+    ));
     if si {
         o.push_str(&format!(" {:>13} {:>13}", "r_max-r_h[m]", "proper[m]"));
     }
@@ -187,7 +196,9 @@ fn text(r: &Report, si: bool) -> String {
     }
     if let Some(t) = r.threshold {
         let tm = r.threshold_m.map(|m| format!(" = {m:.6e} m")).unwrap_or_default();
-        let say = |v: Option<usize>| v.map(|k| format!("after crossing {k}")).unwrap_or_else(|| "not within these crossings".into());
+        let say = |v: Option<usize>| {
+            v.map(|k| format!("after crossing {k}")).unwrap_or_else(|| "not within these crossings".into())
+        };
         o.push_str(&format!(
             "\nwithin {t:.6e} M{tm} of the horizon: areal {}, proper {}\n",
             say(r.first_within_areal),

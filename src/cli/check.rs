@@ -86,9 +86,15 @@ fn build(s: &Scenario, lo: f64, hi: f64) -> Report<'_> {
 }
 
 fn text(r: &Report) -> String {
-    let mut o = format!("scenario: {}\n{}\nshell: {}, D = {}, radii {} .. {}\n", r.scenario, r.provenance, r.shell_kind, r.dimension, r.from, r.to);
+    let mut o = format!(
+        "scenario: {}\n{}\nshell: {}, D = {}, radii {} .. {}\n",
+        r.scenario, r.provenance, r.shell_kind, r.dimension, r.from, r.to
+    );
     for (name, sd) in [("minus", &r.minus), ("plus", &r.plus)] {
-        o.push_str(&format!("\n[{name}] keep = {}, sign of n^r = {:+}\n  A(r) = {}\n  B(r) = {}\n", sd.keep, sd.normal_sign, sd.a, sd.b));
+        o.push_str(&format!(
+            "\n[{name}] keep = {}, sign of n^r = {:+}\n  A(r) = {}\n  B(r) = {}\n",
+            sd.keep, sd.normal_sign, sd.a, sd.b
+        ));
         if sd.survey.horizons.is_empty() {
             o.push_str("  horizons: none in range\n");
         }
@@ -121,7 +127,11 @@ fn csv(r: &Report) -> String {
     let mut o = format!("# {}\nside,feature,radius [M],detail\n", r.provenance);
     for (name, sd) in [("minus", &r.minus), ("plus", &r.plus)] {
         for h in &sd.survey.horizons {
-            o.push_str(&format!("{name},horizon,{:?},{}\n", h.radius, if h.degenerate { "degenerate" } else { "simple" }));
+            o.push_str(&format!(
+                "{name},horizon,{:?},{}\n",
+                h.radius,
+                if h.degenerate { "degenerate" } else { "simple" }
+            ));
         }
         for p in &sd.survey.photon_orbits {
             o.push_str(&format!("{name},photon_orbit,{p:?},\n"));

@@ -76,7 +76,17 @@ impl AxisSpec {
         if self.n == 1 {
             return vec![self.lo];
         }
-        (0..self.n).map(|i| if i + 1 == self.n { self.hi } else { self.lo + (self.hi - self.lo) * i as f64 / (self.n - 1) as f64 }).collect()
+        (0..self.n)
+            .map(
+                |i| {
+                    if i + 1 == self.n {
+                        self.hi
+                    } else {
+                        self.lo + (self.hi - self.lo) * i as f64 / (self.n - 1) as f64
+                    }
+                },
+            )
+            .collect()
     }
 }
 
@@ -84,7 +94,8 @@ impl AxisSpec {
 pub fn parse_axis(flag: &str, spec: &str) -> Result<AxisSpec> {
     let parts: Vec<&str> = spec.split(':').collect();
     let bad = |why: &str| {
-        junctura::Error::input(format!("{flag} {spec}: {why}")).with_hint(format!("write {flag} NAME:LO:HI:N, e.g. {flag} q:0:0.9:50"))
+        junctura::Error::input(format!("{flag} {spec}: {why}"))
+            .with_hint(format!("write {flag} NAME:LO:HI:N, e.g. {flag} q:0:0.9:50"))
     };
     if parts.len() != 4 {
         return Err(bad("expected 4 fields separated by ':'"));
@@ -113,7 +124,10 @@ pub fn parse_axis(flag: &str, spec: &str) -> Result<AxisSpec> {
 
 /// Parse `LO:HI`.
 pub fn parse_pair(flag: &str, spec: &str) -> Result<(f64, f64)> {
-    let bad = || junctura::Error::input(format!("{flag} {spec}: expected LO:HI with LO < HI")).with_hint(format!("e.g. {flag} -2:2"));
+    let bad = || {
+        junctura::Error::input(format!("{flag} {spec}: expected LO:HI with LO < HI"))
+            .with_hint(format!("e.g. {flag} -2:2"))
+    };
     let (a, b) = spec.split_once(':').ok_or_else(bad)?;
     let lo: f64 = a.trim().parse().map_err(|_| bad())?;
     let hi: f64 = b.trim().parse().map_err(|_| bad())?;

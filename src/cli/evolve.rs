@@ -20,7 +20,13 @@ pub struct EvolveArgs {
     #[arg(long)]
     radius: f64,
     /// Start at rest at a0 + DA.
-    #[arg(long, allow_hyphen_values = true, value_name = "DA", required_unless_present = "velocity", conflicts_with = "velocity")]
+    #[arg(
+        long,
+        allow_hyphen_values = true,
+        value_name = "DA",
+        required_unless_present = "velocity",
+        conflicts_with = "velocity"
+    )]
     kick: Option<f64>,
     /// Start at a0 with dR/dτ = V0.
     #[arg(long, allow_hyphen_values = true, value_name = "V0")]
@@ -53,7 +59,9 @@ pub fn run(a: EvolveArgs) -> Result<()> {
         _ => return Err(Error::input("give exactly one of --kick DA or --velocity V0").with_hint("e.g. --kick 0.01")),
     };
     if a.max_turns == 0 {
-        return Err(Error::input("--max-turns 0: at least one turning point is needed").with_hint("e.g. --max-turns 20"));
+        return Err(
+            Error::input("--max-turns 0: at least one turning point is needed").with_hint("e.g. --max-turns 20")
+        );
     }
     let opts = EvolveOptions { max_turns: a.max_turns, ..EvolveOptions::default() };
     let ens = a.ensemble.zip(a.spread);

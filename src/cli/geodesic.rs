@@ -2,7 +2,9 @@
 
 use super::common::{to_json, ScenarioArgs};
 use clap::ValueEnum;
-use junctura::geodesic::{cross, max_radius, Apex, Crossing, CrossingRequest, Direction, Particle, QuadOptions, Radial, SideState};
+use junctura::geodesic::{
+    cross, max_radius, Apex, Crossing, CrossingRequest, Direction, Particle, QuadOptions, Radial, SideState,
+};
 use junctura::metric::{default_range, SideFns};
 use junctura::output::print_stdout;
 use junctura::roots::RootOptions;
@@ -149,7 +151,14 @@ fn side_report(s: &Scenario, which: Which, state: SideState, req: &CrossingReque
             Err(e) => notes.push(format!("coordinate time: {}", e.message)),
         }
     }
-    SideReport { state, turning_points, max_radius: apex, proper_time_to_max_radius: tau, coordinate_time_to_max_radius: t, notes }
+    SideReport {
+        state,
+        turning_points,
+        max_radius: apex,
+        proper_time_to_max_radius: tau,
+        coordinate_time_to_max_radius: t,
+        notes,
+    }
 }
 
 fn build(s: &Scenario, req: &CrossingRequest, c: Crossing) -> Report {

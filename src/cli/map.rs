@@ -1,7 +1,7 @@
 //! `junctura map` (two-parameter maps, sharded or whole) and `junctura merge` (join shards).
 
 use super::common::{parse_axis, to_json};
-use junctura::export::map::{csv_header, csv_rows, meta, parse_rows, MapMeta, SummaryOut};
+use junctura::export::map::{csv_header, csv_rows, meta, parse_rows, MapMeta};
 use junctura::output::{ensure_dir, print_stdout, write_atomic, AtomicFile};
 use junctura::scan::{evaluate_lines, shard_lines, summarize_lines, Axis, Cell, MapSpec, Summary};
 use junctura::scenario::Scenario;
@@ -80,7 +80,7 @@ pub fn run(a: MapArgs) -> Result<()> {
                 return Err(Error::input("--shard needs --out DIR (the part file is written there) or --summary"));
             }
             let sum = summarize_lines(&s, &spec, lines)?;
-            let mut v = serde_json::to_value(SummaryOut::from(sum)).unwrap_or_default();
+            let mut v = serde_json::to_value(sum).unwrap_or_default();
             if let Some(o) = v.as_object_mut() {
                 o.insert("provenance".into(), s.provenance().into());
                 o.insert("x".into(), spec.x.name.clone().into());
@@ -112,18 +112,28 @@ fn check_size(spec: &MapSpec, to_files: bool) -> Result<()> {
     let cells = spec.x.n as u128 * spec.y.n as u128;
     let what = format!("--x {} points x --y {} points = {cells} cells", spec.x.n, spec.y.n);
     if to_files && (cells > MAX_FILE_CELLS || spec.x.n.max(spec.y.n) > MAX_LINE_CELLS) {
-        return Err(Error::input(format!("{what}: too many to write to files (at most {MAX_FILE_CELLS} cells, {MAX_LINE_CELLS} on one axis)"))
-            .with_hint("use fewer points, or --summary for counts only (it streams and stores no cells)"));
+        return Err(Error::input(format!(
+            "{what}: too many to write to files (at most {MAX_FILE_CELLS} cells, {MAX_LINE_CELLS} on one axis)"
+        ))
+        .with_hint("use fewer points, or --summary for counts only (it streams and stores no cells)"));
     }
     if !to_files && cells > MAX_SUMMARY_CELLS {
-        return Err(Error::input(format!("{what}: too many to count in reasonable time (at most {MAX_SUMMARY_CELLS})"))
-            .with_hint("use fewer points; the counts converge long before this resolution"));
+        return Err(Error::input(format!(
+            "{what}: too many to count in reasonable time (at most {MAX_SUMMARY_CELLS})"
+        ))
+        .with_hint("use fewer points; the counts converge long before this resolution"));
     }
     Ok(())
 }
 
 /// Evaluate `lines` in chunks, streaming the CSV; returns the files written.
-fn write_map(s: &Scenario, spec: &MapSpec, lines: std::ops::Range<usize>, shard: Option<(usize, usize)>, dir: &Path) -> Result<Vec<PathBuf>> {
+fn write_map(
+    s: &Scenario,
+    spec: &MapSpec,
+    lines: std::ops::Range<usize>,
+    shard: Option<(usize, usize)>,
+    dir: &Path,
+) -> Result<Vec<PathBuf>> {
     let stem = match shard {
         Some((k, n)) => format!("map.part-{}-of-{}", k + 1, n),
         None => "map".to_string(),
@@ -162,12 +172,16 @@ fn write_map(s: &Scenario, spec: &MapSpec, lines: std::ops::Range<usize>, shard:
         b.finish_and_clear();
     }
     csv.finish()?;
-    let m = meta(s, spec, summary.into(), shard);
+    let m = meta(s, spec, summary, shard);
     let json_path = dir.join(format!("{stem}.json"));
     write_atomic(&json_path, to_json(&m).as_bytes())?;
     let mut written = vec![csv_path, json_path];
     if keep_cells {
-        written.extend(junctura::plot::write_figure(&junctura::report::figures::map_figure(s.provenance(), spec, &classes), dir, "map")?);
+        written.extend(junctura::plot::write_figure(
+            &junctura::report::figures::map_figure(s.provenance(), spec, &classes),
+            dir,
+            "map",
+        )?);
     }
     Ok(written)
 }
@@ -199,8 +213,10 @@ pub fn run_merge(a: MergeArgs) -> Result<()> {
     let mut metas: Vec<(MapMeta, PathBuf)> = Vec::new();
     for p in &a.parts {
         let text = std::fs::read_to_string(p).map_err(|e| Error::io(p, &e))?;
-        let m: MapMeta = serde_json::from_str(&text)
-            .map_err(|e| Error::input(format!("{}: not a map part file: {e}", p.display())).with_hint("pass the map.part-K-of-N.json files"))?;
+        let m: MapMeta = serde_json::from_str(&text).map_err(|e| {
+            Error::input(format!("{}: not a map part file: {e}", p.display()))
+                .with_hint("pass the map.part-K-of-N.json files")
+        })?;
         if m.shard.is_none() {
             return Err(Error::input(format!("{}: this is a whole map, not a part", p.display())));
         }
@@ -216,23 +232,29 @@ pub fn run_merge(a: MergeArgs) -> Result<()> {
             .with_hint("run the missing shards with map --shard K/N"));
     }
     for (m, p) in &metas {
-        if m.csv_header != first.csv_header || m.scenario_sha256 != first.scenario_sha256 || m.shard.map(|s| s.1) != Some(n) {
-            return Err(Error::input(format!("{}: belongs to a different map (scenario, parameters, axes or shard count differ)", p.display())));
+        if m.csv_header != first.csv_header
+            || m.scenario_sha256 != first.scenario_sha256
+            || m.shard.map(|s| s.1) != Some(n)
+        {
+            return Err(Error::input(format!(
+                "{}: belongs to a different map (scenario, parameters, axes or shard count differ)",
+                p.display()
+            )));
         }
     }
     ensure_dir(&a.out)?;
     let csv_path = a.out.join("map.csv");
     let mut csv = AtomicFile::create(&csv_path)?;
     csv.write(first.csv_header.as_bytes())?;
-    let mut total = SummaryOut::default();
+    let mut total = Summary::default();
     let mut cells = Vec::new();
     for (m, p) in &metas {
         let text = std::fs::read_to_string(p).map_err(|e| Error::io(p, &e))?;
-        let body = text.strip_prefix(first.csv_header.as_str()).ok_or_else(|| {
-            Error::input(format!("{}: its header differs from the part metadata", p.display()))
-        })?;
+        let body = text
+            .strip_prefix(first.csv_header.as_str())
+            .ok_or_else(|| Error::input(format!("{}: its header differs from the part metadata", p.display())))?;
         csv.write(body.as_bytes())?;
-        total = total.add(&m.summary);
+        total = total.merge(&m.summary);
         if cells.len() < 4_000_000 {
             cells.extend(parse_rows(body, &p.display().to_string())?);
         }
@@ -246,7 +268,11 @@ pub fn run_merge(a: MergeArgs) -> Result<()> {
     eprintln!("wrote {}", a.out.join("map.json").display());
     let spec: MapSpec = spec_from_meta(&m)?;
     if (spec.x.n as u64) * (spec.y.n as u64) <= 4_000_000 {
-        for p in junctura::plot::write_figure(&junctura::report::figures::map_figure(m.provenance.clone(), &spec, &cells), &a.out, "map")? {
+        for p in junctura::plot::write_figure(
+            &junctura::report::figures::map_figure(m.provenance.clone(), &spec, &cells),
+            &a.out,
+            "map",
+        )? {
             eprintln!("wrote {}", p.display());
         }
     }

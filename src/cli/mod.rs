@@ -5,10 +5,10 @@ mod check;
 mod common;
 mod derive;
 mod evolve;
+mod geodesic;
 mod map;
 mod report;
 mod statics;
-mod geodesic;
 
 use clap::{Parser, Subcommand};
 

@@ -93,7 +93,10 @@ pub fn run_demo(a: DemoArgs) -> Result<()> {
     // Test particles: a radial particle through a moving shell of our own demo star, and a chain of bounces.
     let particles = a.out.join("particles");
     junctura::output::ensure_dir(&particles)?;
-    let star = Scenario::parse(include_str!("../../scenarios/star-shell.toml"), Some(PathBuf::from("scenarios/star-shell.toml")))?;
+    let star = Scenario::parse(
+        include_str!("../../scenarios/star-shell.toml"),
+        Some(PathBuf::from("scenarios/star-shell.toml")),
+    )?;
     let req = junctura::geodesic::crossing::CrossingRequest {
         radius: 4.0,
         shell_velocity: -0.3,
@@ -114,7 +117,9 @@ pub fn run_demo(a: DemoArgs) -> Result<()> {
         let csv = junctura::geodesic::series::chain_csv(&run, &prov, Some(&unit));
         junctura::output::write_atomic(&particles.join("chain.csv"), csv.as_bytes())?;
         let series = junctura::geodesic::series::chain_series(&run, Some(&unit));
-        for (name, fig) in junctura::report::figures::chain_figures(&series, Some(junctura::units::PLANCK_LENGTH_M), &prov) {
+        for (name, fig) in
+            junctura::report::figures::chain_figures(&series, Some(junctura::units::PLANCK_LENGTH_M), &prov)
+        {
             junctura::plot::write_figure(&fig, &particles, &name)?;
         }
     }

@@ -89,11 +89,16 @@ pub fn run_tune(a: TuneArgs) -> Result<()> {
     let rep = if a.marginal {
         let (lo, hi) = match (a.from, a.to) {
             (Some(lo), Some(hi)) => range(Some(lo), Some(hi), (lo, hi))?,
-            _ => return Err(Error::input("--marginal needs --from LO --to HI (the radius range)").with_hint("e.g. --marginal --from 2.1 --to 6")),
+            _ => {
+                return Err(Error::input("--marginal needs --from LO --to HI (the radius range)")
+                    .with_hint("e.g. --marginal --from 2.1 --to 6"))
+            }
         };
         tune_marginal(&s, &a.solve, lo, hi, within, &opts).map_err(|e| e.context(s.origin.label()))?
     } else {
-        let r = a.radius.ok_or_else(|| Error::input("tune needs --radius R or --marginal").with_hint("e.g. tune SCENARIO --solve w --radius 4"))?;
+        let r = a.radius.ok_or_else(|| {
+            Error::input("tune needs --radius R or --marginal").with_hint("e.g. tune SCENARIO --solve w --radius 4")
+        })?;
         if !(r.is_finite() && r > 0.0) {
             return Err(Error::input(format!("--radius {r}: the areal radius must be a positive number")));
         }
@@ -135,7 +140,8 @@ pub fn run_sweep(a: SweepArgs) -> Result<()> {
     let s = a.scenario.load()?;
     let axis = parse_axis("--vary", &a.vary)?;
     if axis.n > 100_000 {
-        return Err(Error::input(format!("--vary {}: N = {} values is more than a sweep needs", a.vary, axis.n)).with_hint("use at most 100000 values; for dense 2-D scans use `junctura map`"));
+        return Err(Error::input(format!("--vary {}: N = {} values is more than a sweep needs", a.vary, axis.n))
+            .with_hint("use at most 100000 values; for dense 2-D scans use `junctura map`"));
     }
     let (lo, hi) = range(a.from, a.to, default_range(&s))?;
     let bar = if std::io::IsTerminal::is_terminal(&std::io::stderr()) && axis.n > 1 {

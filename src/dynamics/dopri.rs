@@ -71,7 +71,13 @@ pub struct Step<X> {
 /// Attempt one step of size `h` from (`y`, `dy` = f(y)). `f` returns the derivative and an extra value, or an
 /// error (a halt) that aborts the step. The system is autonomous (no explicit time), so the stage abscissae
 /// c = (0, 1/5, 3/10, 4/5, 8/9, 1, 1) are not needed.
-pub fn step<X, E>(f: &impl Fn(&Vec3) -> Result<(Vec3, X), E>, y: &Vec3, dy: &Vec3, h: f64, tol: &Tolerances) -> Result<Step<X>, E> {
+pub fn step<X, E>(
+    f: &impl Fn(&Vec3) -> Result<(Vec3, X), E>,
+    y: &Vec3,
+    dy: &Vec3,
+    h: f64,
+    tol: &Tolerances,
+) -> Result<Step<X>, E> {
     let mut k = [[0.0; N]; 7];
     k[0] = *dy;
     let mut extra = None;
@@ -109,7 +115,8 @@ pub fn step<X, E>(f: &impl Fn(&Vec3) -> Result<(Vec3, X), E>, y: &Vec3, dy: &Vec
 /// The next step size after a step with scaled error `err` (standard controller for a pair of order 5(4):
 /// h_new = h * safety * err^(-1/5), limited in growth and shrink; Hairer, Norsett & Wanner 1993, eq. II.4.13).
 pub fn next_step(h: f64, err: f64, tol: &Tolerances) -> f64 {
-    let fac = if err <= 0.0 { tol.max_growth } else { (tol.safety * err.powf(-0.2)).clamp(tol.max_shrink, tol.max_growth) };
+    let fac =
+        if err <= 0.0 { tol.max_growth } else { (tol.safety * err.powf(-0.2)).clamp(tol.max_shrink, tol.max_growth) };
     h * fac
 }
 
@@ -160,7 +167,10 @@ mod tests {
         let e1 = (fixed(&f, [1.0, 0.0, 0.0], 1.0, 16)[0] - 1f64.exp()).abs();
         let e2 = (fixed(&f, [1.0, 0.0, 0.0], 1.0, 32)[0] - 1f64.exp()).abs();
         let ratio = e1 / e2;
-        assert!(ratio > 28.0 && ratio < 36.0, "error ratio (order 4 would give 16, order 6 64) {ratio} (e1 = {e1:e}, e2 = {e2:e})");
+        assert!(
+            ratio > 28.0 && ratio < 36.0,
+            "error ratio (order 4 would give 16, order 6 64) {ratio} (e1 = {e1:e}, e2 = {e2:e})"
+        );
     }
 
     /// The embedded error estimate is of order h^5 per step: for y' = y the estimate shrinks by ~32 when h halves.

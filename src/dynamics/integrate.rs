@@ -197,7 +197,15 @@ fn sample(tau: f64, y: &Vec3, p: f64, c: f64) -> Sample {
 /// with the reason (if the start itself is such a state, the run has one point).
 pub fn integrate(motion: &Motion, y0: Vec3, a0: f64, duration: f64, opts: &EvolveOptions) -> Trajectory {
     let f = |y: &Vec3| motion.rhs(y);
-    let mut log = Log { samples: vec![], keep: opts.keep_samples, a0, r_range: (y0[0], y0[0]), max_excursion: 0.0, max_constraint: 0.0, last: None };
+    let mut log = Log {
+        samples: vec![],
+        keep: opts.keep_samples,
+        a0,
+        r_range: (y0[0], y0[0]),
+        max_excursion: 0.0,
+        max_constraint: 0.0,
+        last: None,
+    };
     let mut turns: Vec<TurningPoint> = vec![];
     let mut crossings: Vec<Crossing> = vec![];
     let (mut accepted, mut rejected) = (0usize, 0usize);
@@ -257,7 +265,9 @@ pub fn integrate(motion: &Motion, y0: Vec3, a0: f64, duration: f64, opts: &Evolv
                     break match last_halt {
                         Some(hl) => StopReason::from_halt(hl),
                         // A law singular at sigma = 0 (p = -c/sigma) drives Rdot without bound as sigma -> 0.
-                        None if motion.singular_at_zero && y[2].abs() < 1e-3 * y0[2].abs() => (StopReason::LawUndefined, None),
+                        None if motion.singular_at_zero && y[2].abs() < 1e-3 * y0[2].abs() => {
+                            (StopReason::LawUndefined, None)
+                        }
                         None => (StopReason::StepUnderflow, None),
                     };
                 }

@@ -107,8 +107,12 @@ pub struct EvolveReport {
 /// its law; a radius within a relative 1e-3 of exactly one static radius is moved there (with a note).
 pub fn static_start(s: &Scenario, radius: f64, notes: &mut Vec<String>) -> Result<f64> {
     if s.shell.kind != ShellKind::Timelike {
-        return Err(Error::input(format!("{}: evolve needs a timelike shell (this one is {})", s.origin.label(), s.shell.kind.name()))
-            .with_hint("a spacelike shell is a transition surface, not a moving membrane"));
+        return Err(Error::input(format!(
+            "{}: evolve needs a timelike shell (this one is {})",
+            s.origin.label(),
+            s.shell.kind.name()
+        ))
+        .with_hint("a spacelike shell is a transition surface, not a moving membrane"));
     }
     if s.shell.eos.is_none() {
         return Err(Error::input(format!("{}: the scenario has no equation of state", s.origin.label()))
@@ -118,7 +122,10 @@ pub fn static_start(s: &Scenario, radius: f64, notes: &mut Vec<String>) -> Resul
         return Err(Error::input(format!("--radius {radius}: the areal radius must be a positive number")));
     }
     let j = Junction::new(s);
-    let hint = format!("run `junctura statics {}` to list the static radii of the law and pass one to --radius", s.origin.label());
+    let hint = format!(
+        "run `junctura statics {}` to list the static radii of the law and pass one to --radius",
+        s.origin.label()
+    );
     let static_ok = |a: f64| -> Option<f64> {
         let (f, sv) = residual(&j, a)?;
         let scale = sv.stress.pressure().abs() + sv.stress.sigma().abs();
@@ -156,10 +163,14 @@ pub fn initial_state(j: &Junction<f64>, a0: f64, start: Start) -> Result<Initial
         Start::Velocity(v) => format!("--velocity {v}"),
     };
     if !(r.is_finite() && v.is_finite() && r > 0.0) {
-        return Err(Error::input(format!("{what}: the starting radius {r} must be a positive number")).with_hint("use a kick smaller than the static radius"));
+        return Err(Error::input(format!("{what}: the starting radius {r} must be a positive number"))
+            .with_hint("use a kick smaller than the static radius"));
     }
     // The static-shell checks (regions, horizons) apply to the starting radius too.
-    j.static_values(r).map_err(|e| e.context(format!("{what}: starting radius {r}")).with_hint("choose a smaller kick that keeps the shell between the horizons"))?;
+    j.static_values(r).map_err(|e| {
+        e.context(format!("{what}: starting radius {r}"))
+            .with_hint("choose a smaller kick that keeps the shell between the horizons")
+    })?;
     let st = j.stress(r, v, 0.0).map_err(|e| e.context(what))?;
     Ok(Initial { radius: r, rdot: v, sigma: st.sigma() })
 }
@@ -189,9 +200,23 @@ pub fn ensemble(j: &Junction<f64>, a0: f64, n: usize, spread: f64, duration: f64
             Ok(init) => {
                 let tr = run_one(j, a0, &init, duration, &o);
                 let bounded = tr.stop == super::integrate::StopReason::Duration && tr.max_excursion <= bound;
-                Member { kick, fate: fate(&tr, a0), stop: tr.stop.name().into(), max_excursion: tr.max_excursion, max_constraint: tr.max_constraint, bounded }
+                Member {
+                    kick,
+                    fate: fate(&tr, a0),
+                    stop: tr.stop.name().into(),
+                    max_excursion: tr.max_excursion,
+                    max_constraint: tr.max_constraint,
+                    bounded,
+                }
             }
-            Err(_) => Member { kick, fate: Fate::Stopped, stop: "invalid_start".into(), max_excursion: kick.abs(), max_constraint: f64::NAN, bounded: false },
+            Err(_) => Member {
+                kick,
+                fate: Fate::Stopped,
+                stop: "invalid_start".into(),
+                max_excursion: kick.abs(),
+                max_constraint: f64::NAN,
+                bounded: false,
+            },
         })
         .collect();
     let bounded = members.iter().filter(|m| m.bounded).count();
@@ -200,23 +225,34 @@ pub fn ensemble(j: &Junction<f64>, a0: f64, n: usize, spread: f64, duration: f64
 
 /// Evolve a shell of scenario `s` set moving from its static radius `radius` by `start`, for proper time
 /// `duration`; with `ens = Some((N, S))` also the ensemble of N kicks in [-S, S].
-pub fn evolve(s: &Scenario, radius: f64, start: Start, duration: f64, ens: Option<(usize, f64)>, opts: &EvolveOptions) -> Result<EvolveReport> {
+pub fn evolve(
+    s: &Scenario,
+    radius: f64,
+    start: Start,
+    duration: f64,
+    ens: Option<(usize, f64)>,
+    opts: &EvolveOptions,
+) -> Result<EvolveReport> {
     let mut notes = Vec::new();
     if !(duration.is_finite() && duration > 0.0) {
-        return Err(Error::input(format!("--duration {duration}: the proper-time duration must be a positive number")).with_hint("e.g. --duration 200"));
+        return Err(Error::input(format!("--duration {duration}: the proper-time duration must be a positive number"))
+            .with_hint("e.g. --duration 200"));
     }
     if let Some((n, spread)) = ens {
         if !(2..=100_000).contains(&n) {
-            return Err(Error::input(format!("--ensemble {n}: give between 2 and 100000 members")).with_hint("e.g. --ensemble 64 --spread 0.2"));
+            return Err(Error::input(format!("--ensemble {n}: give between 2 and 100000 members"))
+                .with_hint("e.g. --ensemble 64 --spread 0.2"));
         }
         if !(spread.is_finite() && spread > 0.0) {
-            return Err(Error::input(format!("--spread {spread}: the kick spread must be a positive number")).with_hint("e.g. --spread 0.2"));
+            return Err(Error::input(format!("--spread {spread}: the kick spread must be a positive number"))
+                .with_hint("e.g. --spread 0.2"));
         }
     }
     let a0 = static_start(s, radius, &mut notes)?;
     let j = Junction::new(s);
     let sv = j.static_values(a0)?;
-    let (res, _) = residual(&j, a0).ok_or_else(|| Error::numerical(format!("the law is undefined at the static radius {a0}")))?;
+    let (res, _) =
+        residual(&j, a0).ok_or_else(|| Error::numerical(format!("the law is undefined at the static radius {a0}")))?;
     let v2 = j.potential_taylor(&sv, Law::Scenario).map(|v| v[2]).unwrap_or(f64::NAN);
     let init = initial_state(&j, a0, start)?;
     let tr = run_one(&j, a0, &init, duration, opts);
@@ -229,7 +265,10 @@ pub fn evolve(s: &Scenario, radius: f64, start: Start, duration: f64, ens: Optio
     };
     let ensemble = ens.map(|(n, spread)| ensemble(&j, a0, n, spread, duration, opts));
     if tr.max_constraint > 1e3 * opts.tol.rtol.max(opts.tol.atol) {
-        notes.push(format!("the energy constraint drifted to {:.2e}: tighten the tolerances or shorten the run", tr.max_constraint));
+        notes.push(format!(
+            "the energy constraint drifted to {:.2e}: tighten the tolerances or shorten the run",
+            tr.max_constraint
+        ));
     }
     Ok(EvolveReport {
         scenario: s.name.clone(),

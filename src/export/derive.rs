@@ -105,7 +105,14 @@ pub fn latex(r: &DeriveReport) -> String {
     o.push_str(&format!("% {}\n% requires \\usepackage{{amsmath,booktabs}}\n", r.provenance));
     o.push_str(&format!(
         "% {} shell, D = {}; minus side: A = {}, B = {}, keep {}; plus side: A = {}, B = {}, keep {}\n",
-        r.shell_kind, r.dimension, r.minus.a_expr, r.minus.b_expr, r.minus.keep, r.plus.a_expr, r.plus.b_expr, r.plus.keep
+        r.shell_kind,
+        r.dimension,
+        r.minus.a_expr,
+        r.minus.b_expr,
+        r.minus.keep,
+        r.plus.a_expr,
+        r.plus.b_expr,
+        r.plus.keep
     ));
     o.push_str("\\begin{align}\n");
     let n = r.formulas.len();
@@ -149,7 +156,8 @@ pub fn latex(r: &DeriveReport) -> String {
 pub fn csv(r: &DeriveReport) -> String {
     let o = |x: Option<f64>| x.map(num).unwrap_or_default();
     let ec = r.energy_conditions;
-    let b = |f: fn(&crate::junction::EnergyConditions) -> bool| ec.as_ref().map(|e| f(e).to_string()).unwrap_or_default();
+    let b =
+        |f: fn(&crate::junction::EnergyConditions) -> bool| ec.as_ref().map(|e| f(e).to_string()).unwrap_or_default();
     format!(
         "# {}\nshell_kind,radius [M],velocity [1],acceleration [1/M],sigma [1/M],pressure [1/M],S_ll [1/M],S_thth [1/M],K_ss_jump [1/M],K_thth_jump [1/M],shell_mass [M],potential [1],beta2_critical [1],stable_when,null,weak,strong,dominant\n{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{}\n",
         r.provenance,

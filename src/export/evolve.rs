@@ -18,8 +18,15 @@ fn opt(x: Option<f64>) -> String {
 
 /// Readable summary of an `evolve` run.
 pub fn evolve_text(r: &EvolveReport) -> String {
-    let mut o = format!("scenario: {}\n# {}\nequation of state: p = {}\n", r.scenario, r.provenance, r.equation_of_state);
-    let verdict = if r.potential_second_derivative > 0.0 { "linearly stable" } else if r.potential_second_derivative < 0.0 { "linearly unstable" } else { "undecided" };
+    let mut o =
+        format!("scenario: {}\n# {}\nequation of state: p = {}\n", r.scenario, r.provenance, r.equation_of_state);
+    let verdict = if r.potential_second_derivative > 0.0 {
+        "linearly stable"
+    } else if r.potential_second_derivative < 0.0 {
+        "linearly unstable"
+    } else {
+        "undecided"
+    };
     o.push_str(&format!(
         "static radius a0 = {}  sigma0 = {}  V''(a0) = {} ({verdict})\n",
         num(r.static_radius),
@@ -27,9 +34,20 @@ pub fn evolve_text(r: &EvolveReport) -> String {
         num(r.potential_second_derivative)
     ));
     o.push_str(&format!("start: {}\n", start_text(r)));
-    o.push_str(&format!("integrated to τ = {} of {}: stop = {}\n  {}\n", num(r.tau_end), num(r.duration), r.stop, r.stop_detail));
+    o.push_str(&format!(
+        "integrated to τ = {} of {}: stop = {}\n  {}\n",
+        num(r.tau_end),
+        num(r.duration),
+        r.stop,
+        r.stop_detail
+    ));
     o.push_str(&format!("fate: {}\n", r.fate.name()));
-    o.push_str(&format!("turning points: {}   R range: {} .. {}\n", r.turning_points_count, num(r.radius_range[0]), num(r.radius_range[1])));
+    o.push_str(&format!(
+        "turning points: {}   R range: {} .. {}\n",
+        r.turning_points_count,
+        num(r.radius_range[0]),
+        num(r.radius_range[1])
+    ));
     match (r.linear_period, r.linear_growth_time) {
         (Some(t), _) => o.push_str(&format!("linear period 2π/sqrt(V''(a0)/2) = {}\n", num(t))),
         (None, Some(g)) => o.push_str(&format!("linear e-folding time 1/sqrt(-V''(a0)/2) = {}\n", num(g))),
@@ -90,7 +108,15 @@ pub fn evolve_csv(r: &EvolveReport) -> String {
     ));
     o.push_str("tau [M],R [M],dR/dtau [1],sigma [1/M],p [1/M],Rdot^2+V [1]\n");
     for s in &r.samples {
-        o.push_str(&format!("{},{},{},{},{},{}\n", num(s.tau), num(s.radius), num(s.rdot), num(s.sigma), num(s.pressure), num(s.constraint)));
+        o.push_str(&format!(
+            "{},{},{},{},{},{}\n",
+            num(s.tau),
+            num(s.radius),
+            num(s.rdot),
+            num(s.sigma),
+            num(s.pressure),
+            num(s.constraint)
+        ));
     }
     o
 }

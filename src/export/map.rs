@@ -49,7 +49,17 @@ pub fn csv_rows(cells: &[Cell], out: &mut String) {
     for c in cells {
         let b = c.energy_bits;
         let has = c.class != CellClass::NoStatic && c.class != CellClass::InsideHorizon;
-        let ec = |bit: u8| if has { if b & bit != 0 { "true" } else { "false" } } else { "" };
+        let ec = |bit: u8| {
+            if has {
+                if b & bit != 0 {
+                    "true"
+                } else {
+                    "false"
+                }
+            } else {
+                ""
+            }
+        };
         let _ = writeln!(
             out,
             "{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{}",
@@ -81,11 +91,20 @@ pub fn parse_rows(text: &str, file: &str) -> Result<Vec<Cell>> {
             continue;
         }
         let f: Vec<&str> = line.split(',').collect();
-        let bad = || Error::input(format!("{file}:{}: not a map data row", ln + 1)).with_hint("merge takes the part files written by map --shard");
+        let bad = || {
+            Error::input(format!("{file}:{}: not a map data row", ln + 1))
+                .with_hint("merge takes the part files written by map --shard")
+        };
         if f.len() != 16 {
             return Err(bad());
         }
-        let num = |s: &str| -> Result<f64> { if s.is_empty() { Ok(f64::NAN) } else { s.parse().map_err(|_| bad()) } };
+        let num = |s: &str| -> Result<f64> {
+            if s.is_empty() {
+                Ok(f64::NAN)
+            } else {
+                s.parse().map_err(|_| bad())
+            }
+        };
         let class = CellClass::ALL.iter().copied().find(|c| c.name() == f[10]).ok_or_else(bad)?;
         let bit = |s: &str, v: u8| if s == "true" { v } else { 0 };
         cells.push(Cell {
@@ -128,73 +147,13 @@ pub struct MapMeta {
     #[serde(skip_serializing_if = "Option::is_none", default)]
     pub shard: Option<(usize, usize)>,
     /// Counts.
-    pub summary: SummaryOut,
+    pub summary: Summary,
     /// The exact CSV header, so merged files match unsharded ones byte for byte.
     pub csv_header: String,
 }
 
-/// Summary in JSON form (u64 counts).
-#[derive(Debug, Clone, Copy, Serialize, Deserialize, PartialEq, Eq, Default)]
-pub struct SummaryOut {
-    /// All cells.
-    pub cells: u64,
-    /// Stable.
-    pub stable_cells: u64,
-    /// Unstable.
-    pub unstable_cells: u64,
-    /// Marginal.
-    pub marginal_cells: u64,
-    /// No static shell.
-    pub no_static_cells: u64,
-    /// Inside a horizon.
-    pub inside_horizon_cells: u64,
-    /// NEC holds.
-    pub null_energy_cells: u64,
-    /// WEC holds.
-    pub weak_energy_cells: u64,
-    /// SEC holds.
-    pub strong_energy_cells: u64,
-    /// DEC holds.
-    pub dominant_energy_cells: u64,
-}
-
-impl From<Summary> for SummaryOut {
-    fn from(s: Summary) -> Self {
-        SummaryOut {
-            cells: s.cells,
-            stable_cells: s.stable_cells,
-            unstable_cells: s.unstable_cells,
-            marginal_cells: s.marginal_cells,
-            no_static_cells: s.no_static_cells,
-            inside_horizon_cells: s.inside_horizon_cells,
-            null_energy_cells: s.null_energy_cells,
-            weak_energy_cells: s.weak_energy_cells,
-            strong_energy_cells: s.strong_energy_cells,
-            dominant_energy_cells: s.dominant_energy_cells,
-        }
-    }
-}
-
-impl SummaryOut {
-    /// Sum.
-    pub fn add(&self, o: &SummaryOut) -> SummaryOut {
-        SummaryOut {
-            cells: self.cells + o.cells,
-            stable_cells: self.stable_cells + o.stable_cells,
-            unstable_cells: self.unstable_cells + o.unstable_cells,
-            marginal_cells: self.marginal_cells + o.marginal_cells,
-            no_static_cells: self.no_static_cells + o.no_static_cells,
-            inside_horizon_cells: self.inside_horizon_cells + o.inside_horizon_cells,
-            null_energy_cells: self.null_energy_cells + o.null_energy_cells,
-            weak_energy_cells: self.weak_energy_cells + o.weak_energy_cells,
-            strong_energy_cells: self.strong_energy_cells + o.strong_energy_cells,
-            dominant_energy_cells: self.dominant_energy_cells + o.dominant_energy_cells,
-        }
-    }
-}
-
 /// Build the metadata.
-pub fn meta(s: &Scenario, spec: &MapSpec, summary: SummaryOut, shard: Option<(usize, usize)>) -> MapMeta {
+pub fn meta(s: &Scenario, spec: &MapSpec, summary: Summary, shard: Option<(usize, usize)>) -> MapMeta {
     MapMeta {
         version: env!("CARGO_PKG_VERSION").to_string(),
         scenario: s.name.clone(),

@@ -26,7 +26,11 @@ pub fn latex_num(x: f64) -> String {
     if (-3..5).contains(&e) {
         let s = format!("{:.*}", (5 - e).clamp(0, 8) as usize, x);
         let s = if s.contains('.') { s.trim_end_matches('0').trim_end_matches('.').to_string() } else { s };
-        if s == "-0" { "0".into() } else { s }
+        if s == "-0" {
+            "0".into()
+        } else {
+            s
+        }
     } else {
         let m = x / 10f64.powi(e);
         let ms = format!("{m:.5}");

@@ -7,7 +7,14 @@ use crate::statics::StaticsReport;
 
 /// Readable list of static radii.
 pub fn statics_text(r: &StaticsReport) -> String {
-    let mut o = format!("scenario: {}\n# {}\nequation of state: p = {}\nradius range {} .. {}\n", r.scenario, r.provenance, r.equation_of_state, num(r.from), num(r.to));
+    let mut o = format!(
+        "scenario: {}\n# {}\nequation of state: p = {}\nradius range {} .. {}\n",
+        r.scenario,
+        r.provenance,
+        r.equation_of_state,
+        num(r.from),
+        num(r.to)
+    );
     for iv in &r.intervals {
         o.push_str(&format!("  searched {} .. {} (both sides R-regions)\n", num(iv.from), num(iv.to)));
     }
@@ -87,7 +94,10 @@ pub fn tune_json(r: &TuneReport) -> String {
             m.insert("sigma".into(), s.sigma.into());
             m.insert("pressure".into(), s.pressure.into());
             m.insert("residual".into(), s.residual.into());
-            m.insert("d_radius_d_parameter".into(), s.d_radius_d_parameter.map(serde_json::Value::from).unwrap_or(serde_json::Value::Null));
+            m.insert(
+                "d_radius_d_parameter".into(),
+                s.d_radius_d_parameter.map(serde_json::Value::from).unwrap_or(serde_json::Value::Null),
+            );
             serde_json::Value::Object(m)
         })
         .collect();
@@ -104,7 +114,14 @@ pub fn tune_json(r: &TuneReport) -> String {
 
 /// Readable `tune` result.
 pub fn tune_text(r: &TuneReport) -> String {
-    let mut o = format!("scenario: {}\n# {}\nsolving for {} in [{}, {}]\n", r.scenario, r.provenance, r.parameter, num(r.searched[0]), num(r.searched[1]));
+    let mut o = format!(
+        "scenario: {}\n# {}\nsolving for {} in [{}, {}]\n",
+        r.scenario,
+        r.provenance,
+        r.parameter,
+        num(r.searched[0]),
+        num(r.searched[1])
+    );
     for s in &r.solutions {
         o.push_str(&format!(
             "  {} = {}  a0 = {}  sigma0 = {}  p0 = {}  V''(a0) = {} -> {}  da0/d{} = {}\n",
@@ -127,14 +144,29 @@ pub fn tune_text(r: &TuneReport) -> String {
 
 /// Readable sweep: one block per branch.
 pub fn sweep_text(r: &SweepReport) -> String {
-    let mut o = format!("scenario: {}\n# {}\nvarying {} over {} values; radius range {} .. {}\n", r.scenario, r.provenance, r.parameter, r.values.len(), num(r.radius_range[0]), num(r.radius_range[1]));
+    let mut o = format!(
+        "scenario: {}\n# {}\nvarying {} over {} values; radius range {} .. {}\n",
+        r.scenario,
+        r.provenance,
+        r.parameter,
+        r.values.len(),
+        num(r.radius_range[0]),
+        num(r.radius_range[1])
+    );
     if r.branches.is_empty() {
         o.push_str("no static radius for any value\n");
     }
     for b in &r.branches {
         o.push_str(&format!("branch {} ({} points, {} folds)\n", b.id, b.points.len(), b.folds.len()));
         for p in &b.points {
-            o.push_str(&format!("  {} = {:<24} a0 = {:<24} V'' = {:<24} {}\n", r.parameter, num(p.value), num(p.radius), num(p.potential_second_derivative), p.stability.name()));
+            o.push_str(&format!(
+                "  {} = {:<24} a0 = {:<24} V'' = {:<24} {}\n",
+                r.parameter,
+                num(p.value),
+                num(p.radius),
+                num(p.potential_second_derivative),
+                p.stability.name()
+            ));
         }
         for f in &b.folds {
             o.push_str(&format!("  fold near {} = {}, a0 = {}\n", r.parameter, num(f.value), num(f.radius)));
@@ -152,7 +184,14 @@ pub fn sweep_csv(r: &SweepReport) -> String {
     o.push_str(&format!("branch,{} [param],radius [M],potential_second_derivative [1/M^2],stability\n", r.parameter));
     for b in &r.branches {
         for p in &b.points {
-            o.push_str(&format!("{},{},{},{},{}\n", b.id, num(p.value), num(p.radius), num(p.potential_second_derivative), p.stability.name()));
+            o.push_str(&format!(
+                "{},{},{},{},{}\n",
+                b.id,
+                num(p.value),
+                num(p.radius),
+                num(p.potential_second_derivative),
+                p.stability.name()
+            ));
         }
     }
     o
@@ -161,7 +200,10 @@ pub fn sweep_csv(r: &SweepReport) -> String {
 /// A booktabs table of static solutions, ready to `\input`.
 pub fn statics_latex(r: &StaticsReport) -> String {
     use super::latex_num;
-    let mut o = format!("% {}\n% equation of state: p = {}\n% requires \\usepackage{{booktabs}}\n", r.provenance, r.equation_of_state);
+    let mut o = format!(
+        "% {}\n% equation of state: p = {}\n% requires \\usepackage{{booktabs}}\n",
+        r.provenance, r.equation_of_state
+    );
     o.push_str("\\begin{tabular}{rrrrrl}\n\\toprule\n$a_0/M$ & $\\sigma_0 M$ & $p_0 M$ & $\\beta^{2}$ & $V''(a_0) M^{2}$ & stability \\\\\n\\midrule\n");
     for s in &r.static_radii {
         let mut st = s.stability.name().to_string();

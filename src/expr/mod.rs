@@ -27,11 +27,11 @@
 
 pub mod ast;
 pub mod eval;
+mod jets;
 pub mod parse;
 pub mod print;
 pub mod symbolic;
 pub mod tape;
-mod jets;
 #[cfg(test)]
 mod testgen;
 

@@ -66,7 +66,8 @@ fn lex(src: &str) -> Result<Lexer, ParseError> {
     let chars: Vec<char> = src.chars().collect();
     let mut toks = Vec::new();
     let mut i = 0;
-    let err = |col: usize, msg: String| ParseError { message: msg, column: col + 1, source: src.to_string(), hint: None };
+    let err =
+        |col: usize, msg: String| ParseError { message: msg, column: col + 1, source: src.to_string(), hint: None };
     while i < chars.len() {
         let c = chars[i];
         if c.is_whitespace() {
@@ -230,7 +231,8 @@ impl<'a> Parser<'a> {
     /// counted once, in this one place.
     fn unary(&mut self) -> Result<Node, ParseError> {
         if self.depth >= MAX_DEPTH {
-            let mut e = self.error_here(format!("the expression is nested or chained more than {MAX_DEPTH} levels deep"));
+            let mut e =
+                self.error_here(format!("the expression is nested or chained more than {MAX_DEPTH} levels deep"));
             e.hint = Some("split the expression or simplify it (each parenthesis, function, sign, power or further term adds a level)".into());
             return Err(e);
         }
@@ -341,10 +343,7 @@ impl<'a> Parser<'a> {
         };
         let hint = match closest(&name, known.iter().copied().chain(["pi"])) {
             Some(s) => format!("did you mean '{s}'? The variable here is '{}'; {list}", self.var),
-            None => format!(
-                "the variable here is '{}'; {list}; add new names under [parameters]",
-                self.var
-            ),
+            None => format!("the variable here is '{}'; {list}; add new names under [parameters]", self.var),
         };
         Err(ParseError {
             message: format!("unknown name '{name}'"),

@@ -87,9 +87,40 @@ impl TextPrinter<'_> {
 }
 
 const GREEK: [&str; 34] = [
-    "alpha", "beta", "gamma", "delta", "epsilon", "varepsilon", "zeta", "eta", "theta", "vartheta", "iota",
-    "kappa", "lambda", "mu", "nu", "xi", "rho", "varrho", "sigma", "tau", "upsilon", "phi", "varphi", "chi",
-    "psi", "omega", "Gamma", "Delta", "Theta", "Lambda", "Xi", "Sigma", "Phi", "Psi",
+    "alpha",
+    "beta",
+    "gamma",
+    "delta",
+    "epsilon",
+    "varepsilon",
+    "zeta",
+    "eta",
+    "theta",
+    "vartheta",
+    "iota",
+    "kappa",
+    "lambda",
+    "mu",
+    "nu",
+    "xi",
+    "rho",
+    "varrho",
+    "sigma",
+    "tau",
+    "upsilon",
+    "phi",
+    "varphi",
+    "chi",
+    "psi",
+    "omega",
+    "Gamma",
+    "Delta",
+    "Theta",
+    "Lambda",
+    "Xi",
+    "Sigma",
+    "Phi",
+    "Psi",
 ];
 
 /// LaTeX for a name typed by a user: Greek letter names become their commands (`alpha` -> `\alpha`,
@@ -187,7 +218,13 @@ impl LatexPrinter<'_> {
                     };
                     let minus = (*op == BinOp::Sub) != flip;
                     let right = if right.starts_with('-') && minus { paren(&right) } else { right };
-                    let sep = if minus { "-" } else if right.starts_with('-') { "" } else { "+" };
+                    let sep = if minus {
+                        "-"
+                    } else if right.starts_with('-') {
+                        ""
+                    } else {
+                        "+"
+                    };
                     (format!("{left}{sep}{right}"), SUM)
                 }
                 BinOp::Mul => {

@@ -50,7 +50,12 @@ const GOLDEN: [(&str, &str, &str, &str); 18] = [
     ),
     // redshift-type factor
     ("sqrt(1 - 2*m/r)", "r", "sqrt(1 - 2*m/r)", r"\sqrt{1-\frac{2m}{r}}"),
-    ("2*pi*r*log(r/m) + sin(r)", "r", "2*pi*r*log(r/m) + sin(r)", r"2\pi r\ln\left(\frac{r}{m}\right)+\sin\left(r\right)"),
+    (
+        "2*pi*r*log(r/m) + sin(r)",
+        "r",
+        "2*pi*r*log(r/m) + sin(r)",
+        r"2\pi r\ln\left(\frac{r}{m}\right)+\sin\left(r\right)",
+    ),
     ("1e-20*r + 2*3*r + 1.5e30", "r", "1e-20*r + 2*3*r + 1.5e30", r"10^{-20}r+2\cdot 3r+1.5\times10^{30}"),
     ("r^-2 - (m - r)*(-q)", "r", "r^-2 - (m - r)*-q", r"\frac{1}{r^{2}}-\left(m-r\right)\left(-q\right)"),
     ("mu*r + -m", "r", "mu*r - m", r"\mu r-m"),

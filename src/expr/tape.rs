@@ -259,7 +259,8 @@ impl Tape {
     /// An evaluator for many points at fixed real parameters: the parameter-only instructions run once here,
     /// each [`TapeEval::eval`] runs only the variable-dependent ones, in a buffer reused across points.
     pub fn evaluator<T: Scalar>(&self, params: &[f64]) -> TapeEval<'_, T> {
-        let slots = self.prelude(params).into_iter().map(T::from).chain((self.n_pre..self.insts.len()).map(|_| T::zero()));
+        let slots =
+            self.prelude(params).into_iter().map(T::from).chain((self.n_pre..self.insts.len()).map(|_| T::zero()));
         TapeEval { tape: self, slots: slots.collect() }
     }
 

@@ -82,7 +82,15 @@ fn check_batch(e: &Expr, t: &Tape, xs: &[f64], ps: &[f64], jet_scale: bool) -> R
         let (rel, scale) = if jet_scale { (1e-9, w.iter().map(|v| v.abs()).sum()) } else { (1e-11, 0.0) };
         let got = [[f[i], d1[i], d2[i], f64::NAN], [g[i], g1[i], g2[i], g3[i]]];
         for (k, want) in w.iter().enumerate() {
-            prop_assert!(close(got[1][k], *want, rel, scale), "{} d3 batch order {} at {}: {} vs {}", e.to_text(), k, x, got[1][k], want);
+            prop_assert!(
+                close(got[1][k], *want, rel, scale),
+                "{} d3 batch order {} at {}: {} vs {}",
+                e.to_text(),
+                k,
+                x,
+                got[1][k],
+                want
+            );
             if k < 3 {
                 prop_assert!(close(got[0][k], *want, rel, scale), "{} d2 batch order {} at {}", e.to_text(), k, x);
             }

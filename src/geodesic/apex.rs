@@ -138,7 +138,11 @@ pub fn max_radius(
             }
             // Near the horizon end B(h + x) = x * mean(B') (no cancellation; B(h) = 0 by definition of h).
             let f = |lower: bool, x: f64| {
-                let b = if lower && x < 0.05 * h { x * mean_slope(fns, h, x) } else { fns.b(if lower { h + x } else { rmax - x }) };
+                let b = if lower && x < 0.05 * h {
+                    x * mean_slope(fns, h, x)
+                } else {
+                    fns.b(if lower { h + x } else { rmax - x })
+                };
                 if b > 0.0 {
                     1.0 / b.sqrt()
                 } else {
@@ -149,7 +153,13 @@ pub fn max_radius(
         }
         _ => (None, None),
     };
-    Ok(Some(Apex { radius: rmax, horizon: h, areal_distance: areal, proper_distance: proper, method: ApexMethod::RootFinding }))
+    Ok(Some(Apex {
+        radius: rmax,
+        horizon: h,
+        areal_distance: areal,
+        proper_distance: proper,
+        method: ApexMethod::RootFinding,
+    }))
 }
 
 /// (B(h + x) - B(h))/x as the mean of B' over [h, h + x] (exact B' from dual numbers; see [`mean_over`]).
@@ -220,7 +230,8 @@ mod tests {
             let p = [m];
             let fns = SideFns { a: &e, b: &e, params: &p };
             for e2 in [0.64, 1e-3, 1e-7, 1e-40, 1e-120] {
-                let ap = max_radius(&fns, e2, m, 1e6, &RootOptions::default(), &QuadOptions::default()).unwrap().unwrap();
+                let ap =
+                    max_radius(&fns, e2, m, 1e6, &RootOptions::default(), &QuadOptions::default()).unwrap().unwrap();
                 let delta = 2.0 * m * e2 / (1.0 - e2);
                 let d = ap.areal_distance.unwrap();
                 assert!((d - delta).abs() < 1e-11 * delta, "E^2={e2}: {d} vs {delta} ({:?})", ap.method);

@@ -119,7 +119,8 @@ impl Chain {
     /// Validate chain text; `path` locates scenario files and names the file in messages.
     pub fn parse(text: &str, path: Option<&Path>) -> Result<Chain> {
         let file = path.map(|p| p.display().to_string()).unwrap_or_else(|| "<chain>".into());
-        let hint = "see the chain file format in the README (name, crossings, [particle] energy, [[stage]], [cycle] multiply)";
+        let hint =
+            "see the chain file format in the README (name, crossings, [particle] energy, [[stage]], [cycle] multiply)";
         let raw: RawChain = toml::from_str(text).map_err(|e| {
             let at = e.span().map(|s| line_col(text, s.start)).map(|(l, c)| format!(":{l}:{c}")).unwrap_or_default();
             Error::input(format!("{file}{at}: {}", e.message().trim())).with_hint(hint)
@@ -138,17 +139,21 @@ impl Chain {
             let mut scenario = match (&rs.scenario, &rs.inline) {
                 (Some(p), None) => Scenario::load(&dir.join(p)).map_err(|e| e.context(&label))?,
                 (None, Some(t)) => {
-                    let inline_text = toml::to_string(t).map_err(|e| Error::input(format!("{label}: inline scenario: {e}")))?;
+                    let inline_text =
+                        toml::to_string(t).map_err(|e| Error::input(format!("{label}: inline scenario: {e}")))?;
                     Scenario::parse(&inline_text, Some(PathBuf::from(format!("{file} (stage {} inline)", k + 1))))?
                 }
                 _ => {
-                    return Err(Error::input(format!("{label}: give exactly one of 'scenario' (a file) or [stage.inline]"))
-                        .with_hint("e.g. scenario = \"bounce-stage.toml\""))
+                    return Err(Error::input(format!(
+                        "{label}: give exactly one of 'scenario' (a file) or [stage.inline]"
+                    ))
+                    .with_hint("e.g. scenario = \"bounce-stage.toml\""))
                 }
             };
             for (name, v) in &rs.set {
                 let x = number(v).ok_or_else(|| {
-                    Error::input(format!("{label}: set.{name} = {v} is not a number")).with_hint("write e.g. set = { m = 1.0 }")
+                    Error::input(format!("{label}: set.{name} = {v} is not a number"))
+                        .with_hint("write e.g. set = { m = 1.0 }")
                 })?;
                 scenario.params.set(name, x).map_err(|e| e.context(format!("{label}: set")))?;
             }
@@ -158,7 +163,9 @@ impl Chain {
                     other => match number(other) {
                         Some(x) => format!("{x:e}"),
                         None => {
-                            return Err(Error::input(format!("{label}: {key} = {other} must be a number or an expression")))
+                            return Err(Error::input(format!(
+                                "{label}: {key} = {other} must be a number or an expression"
+                            )))
                         }
                     },
                 };
@@ -176,7 +183,8 @@ impl Chain {
                 Ok(e)
             };
             let radius = expr(&rs.radius, "radius")?;
-            let shell_velocity = expr(rs.shell_velocity.as_ref().unwrap_or(&toml::Value::Float(0.0)), "shell_velocity")?;
+            let shell_velocity =
+                expr(rs.shell_velocity.as_ref().unwrap_or(&toml::Value::Float(0.0)), "shell_velocity")?;
             stages.push(Stage { scenario, radius, shell_velocity });
         }
         let mut multiply = Vec::new();
@@ -186,7 +194,10 @@ impl Chain {
                     .with_hint("e.g. multiply = { m = 0.9 } scales m by 0.9 per pass")
             })?;
             for (k, st) in stages.iter().enumerate() {
-                st.scenario.params.index(&name).map_err(|e| e.context(format!("{file}: [cycle] multiply, stage {}", k + 1)))?;
+                st.scenario
+                    .params
+                    .index(&name)
+                    .map_err(|e| e.context(format!("{file}: [cycle] multiply, stage {}", k + 1)))?;
             }
             multiply.push((name, f));
         }

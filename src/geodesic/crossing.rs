@@ -106,7 +106,9 @@ fn side_values(side: &Side, params: &[f64], r: f64) -> Result<(f64, f64)> {
             "[{}] the shell radius R = {r} is on a horizon (A = {a}, B = {b})",
             side.which
         ))
-        .with_hint("a shell on a horizon needs the null-shell formalism (Barrabes & Israel 1991), which is out of scope"));
+        .with_hint(
+            "a shell on a horizon needs the null-shell formalism (Barrabes & Israel 1991), which is out of scope",
+        ));
     }
     Ok((a, b))
 }
@@ -206,10 +208,7 @@ fn cross_timelike(req: &CrossingRequest, minus: (f64, f64, f64), plus: (f64, f64
     let p0 = e / am.sqrt();
     let p1_mag = if null { p0 } else { ((e * e - am) / am).max(0.0).sqrt() };
     if !null && e * e < am {
-        return fail(
-            format!("E^2 = {} < A_minus(R) = {am}: the particle turns before it reaches R", e * e),
-            blank,
-        );
+        return fail(format!("E^2 = {} < A_minus(R) = {am}: the particle turns before it reaches R", e * e), blank);
     }
     // Radial direction: requested, else along n^r (toward the plus side), else the other one if only it meets
     // the shell.
@@ -272,7 +271,14 @@ fn cross_spacelike(req: &CrossingRequest, minus: (f64, f64, f64), plus: (f64, f6
     let urp = ur(e_plus, ap, bp, nup);
     // -u.n with n_r = -nu/sqrt(-B): -u.n = nu u^r / sqrt(-B).
     let check = nup * urp / (-bp).sqrt();
-    let side = |energy, a, b, nu, radial_velocity| SideState { energy, a, b, normal_sign: nu, radial_velocity, u_dot_n: -normal };
+    let side = |energy, a, b, nu, radial_velocity| SideState {
+        energy,
+        a,
+        b,
+        normal_sign: nu,
+        radial_velocity,
+        u_dot_n: -normal,
+    };
     Crossing {
         shell_kind: "spacelike",
         energy_minus: e,
@@ -307,7 +313,12 @@ mod tests {
         // Common practice: with no jump in the metric the shell is invisible to the particle.
         let s = scenario("1 - 2*m/r", "inner", "1 - 2*m/r", "outer", "timelike");
         let p = s.params.values().to_vec();
-        for (v, e, part) in [(0.0, 0.95, Particle::Timelike), (0.3, 0.95, Particle::Timelike), (-0.4, 1.3, Particle::Timelike), (0.2, 0.7, Particle::Null)] {
+        for (v, e, part) in [
+            (0.0, 0.95, Particle::Timelike),
+            (0.3, 0.95, Particle::Timelike),
+            (-0.4, 1.3, Particle::Timelike),
+            (0.2, 0.7, Particle::Null),
+        ] {
             let c = cross(&s, &p, &req(4.0, v, e, part)).unwrap();
             assert!(c.can_cross, "{c:?}");
             assert!((c.energy_plus.unwrap() - e).abs() < 1e-14, "{c:?}");

@@ -64,8 +64,10 @@ pub const MAX_CROSSINGS: usize = 10_000_000;
 /// Run `crossings` crossings of `chain` (threshold in geometric units, optional).
 pub fn run_chain(chain: &Chain, crossings: usize, threshold: Option<f64>) -> Result<ChainRun> {
     if crossings > MAX_CROSSINGS {
-        return Err(crate::Error::input(format!("{crossings} crossings: more than the {MAX_CROSSINGS} one run can keep"))
-            .with_hint("ask for fewer crossings (--crossings N or crossings = N in the chain file)"));
+        return Err(crate::Error::input(format!(
+            "{crossings} crossings: more than the {MAX_CROSSINGS} one run can keep"
+        ))
+        .with_hint("ask for fewer crossings (--crossings N or crossings = N in the chain file)"));
     }
     let roots = RootOptions { samples: 600, ..Default::default() };
     let quad = QuadOptions::default();
@@ -87,8 +89,15 @@ pub fn run_chain(chain: &Chain, crossings: usize, threshold: Option<f64>) -> Res
                 }
             }
         }
-        let req = CrossingRequest { radius, shell_velocity: velocity, energy_minus: energy, particle: Particle::Timelike, direction: None };
-        let c = cross(&stage.scenario, &params, &req).map_err(|e| e.context(format!("crossing {} (stage {})", k + 1, s + 1)))?;
+        let req = CrossingRequest {
+            radius,
+            shell_velocity: velocity,
+            energy_minus: energy,
+            particle: Particle::Timelike,
+            direction: None,
+        };
+        let c = cross(&stage.scenario, &params, &req)
+            .map_err(|e| e.context(format!("crossing {} (stage {})", k + 1, s + 1)))?;
         let mut row = ChainRow {
             crossing: k + 1,
             stage: s + 1,
@@ -231,7 +240,12 @@ multiply = {{ m = {lambda} }}
             let one = ratio(1, 1);
             let delta = &two * &m * &e2 / (&one - &e2);
             let got = row.apex.unwrap().areal_distance.unwrap();
-            assert!((got.log10() - log10(&delta)).abs() < 1e-12 * log10(&delta).abs().max(1.0), "crossing {}: {got} vs 10^{}", row.crossing, log10(&delta));
+            assert!(
+                (got.log10() - log10(&delta)).abs() < 1e-12 * log10(&delta).abs().max(1.0),
+                "crossing {}: {got} vs 10^{}",
+                row.crossing,
+                log10(&delta)
+            );
             // Proper distance from the horizon: sqrt(d (2M + d)) + 2M asinh(sqrt(d/2M)), the elementary
             // antiderivative of (1 - 2M/r)^(-1/2) (common practice), evaluated at the exact d.
             let (mk, d) = (2.0 * 0.9f64.powi(row.crossing as i32) / 2.0, 10f64.powf(log10(&delta)));
@@ -242,7 +256,11 @@ multiply = {{ m = {lambda} }}
         // The last apex sits ~1e-29 horizon radii above the horizon: far below what f64 radii resolve.
         let last = run.rows.last().unwrap().apex.unwrap();
         assert!(last.areal_distance.unwrap() < 1e-28 * last.horizon.unwrap());
-        assert_eq!(last.radius, last.horizon.unwrap(), "r_max rounds to r_h in f64; the distance is carried separately");
+        assert_eq!(
+            last.radius,
+            last.horizon.unwrap(),
+            "r_max rounds to r_h in f64; the distance is carried separately"
+        );
         let first = run.first_within_areal.unwrap();
         assert!(run.rows[first - 1].apex.unwrap().areal_distance.unwrap() <= 1e-38);
         assert!(run.rows[first - 2].apex.unwrap().areal_distance.unwrap() > 1e-38);

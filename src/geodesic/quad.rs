@@ -106,7 +106,8 @@ pub fn integrate<F: Fn(f64) -> f64>(f: &F, a: f64, b: f64, opts: &QuadOptions) -
         if err <= tol || parts.len() >= opts.max_intervals {
             return Quad { value: total, error: err, converged: err <= tol, intervals: parts.len() };
         }
-        let (k, _) = parts.iter().enumerate().fold((0, -1.0), |best, (i, p)| if p.3 > best.1 { (i, p.3) } else { best });
+        let (k, _) =
+            parts.iter().enumerate().fold((0, -1.0), |best, (i, p)| if p.3 > best.1 { (i, p.3) } else { best });
         let (x0, x1, _, _) = parts.swap_remove(k);
         let m = 0.5 * (x0 + x1);
         if m == x0 || m == x1 {

@@ -37,10 +37,7 @@ pub fn chain_series(run: &ChainRun, unit: Option<&MassUnit>) -> Vec<Series> {
     let energy: Vec<(f64, f64)> =
         run.rows.iter().filter_map(|r| r.energy_plus.map(|e| (r.crossing as f64, e))).collect();
     let pick = |f: &dyn Fn(&super::apex::Apex) -> Option<f64>| -> Vec<(f64, f64)> {
-        run.rows
-            .iter()
-            .filter_map(|r| r.apex.as_ref().and_then(f).map(|d| (r.crossing as f64, d * scale)))
-            .collect()
+        run.rows.iter().filter_map(|r| r.apex.as_ref().and_then(f).map(|d| (r.crossing as f64, d * scale))).collect()
     };
     let areal = pick(&|a| a.areal_distance);
     let proper = pick(&|a| a.proper_distance);

@@ -21,9 +21,12 @@ fn f(name: &str, text: String, latex: String) -> Formula {
     Formula { name: name.into(), text, latex }
 }
 
-
 fn gcd(a: u32, b: u32) -> u32 {
-    if b == 0 { a } else { gcd(b, a % b) }
+    if b == 0 {
+        a
+    } else {
+        gcd(b, a % b)
+    }
 }
 
 /// n/(8 pi X) reduced, as (text, latex); `x` is the symbol after pi (e.g. "R", "a" or "").
@@ -50,7 +53,11 @@ fn kappa_def(n: u32) -> (String, String) {
 
 /// A coefficient before a term: empty for 1.
 fn times(k: u32) -> String {
-    if k == 1 { String::new() } else { format!("{k} ") }
+    if k == 1 {
+        String::new()
+    } else {
+        format!("{k} ")
+    }
 }
 
 /// `+ X_plus - X_minus` with the orientation signs folded in, for text and LaTeX.
@@ -128,7 +135,8 @@ impl<'a, T: Scalar> Junction<'a, T> {
                         n - 1
                     ),
                 ));
-                let (st, sl) = signed_pair(np, nm, &|sd| (format!("sqrt(B_{sd}(a))"), format!("\\sqrt{{B_{{{sd}}}(a)}}")));
+                let (st, sl) =
+                    signed_pair(np, nm, &|sd| (format!("sqrt(B_{sd}(a))"), format!("\\sqrt{{B_{{{sd}}}(a)}}")));
                 out.push(f(
                     "sigma0",
                     format!("sigma0 = -{} ({st})", over_8pi(n, "a").0),
@@ -137,10 +145,17 @@ impl<'a, T: Scalar> Junction<'a, T> {
                 let (pt, pl) = signed_pair(np, nm, &|sd| {
                     (
                         format!("sqrt(B_{sd}) (A'_{sd}/(2 A_{sd}) + {}/a)", n - 1),
-                        format!("\\sqrt{{B_{{{sd}}}}}\\left(\\frac{{A_{{{sd}}}'}}{{2A_{{{sd}}}}}+\\frac{{{}}}{{a}}\\right)", n - 1),
+                        format!(
+                            "\\sqrt{{B_{{{sd}}}}}\\left(\\frac{{A_{{{sd}}}'}}{{2A_{{{sd}}}}}+\\frac{{{}}}{{a}}\\right)",
+                            n - 1
+                        ),
                     )
                 });
-                out.push(f("pressure0", format!("p0 = (1/(8 pi)) ({pt})"), format!("p_0=\\frac{{1}}{{8\\pi}}\\left({pl}\\right)")));
+                out.push(f(
+                    "pressure0",
+                    format!("p0 = (1/(8 pi)) ({pt})"),
+                    format!("p_0=\\frac{{1}}{{8\\pi}}\\left({pl}\\right)"),
+                ));
                 out.push(f(
                     "potential",
                     format!("Rdot^2 + V(R) = 0,  V(R) = (B_+ + B_-)/2 - ((B_+ - B_-)/(2 kappa))^2 - kappa^2/4,  kappa = {}", kappa_def(n).0),
@@ -157,18 +172,30 @@ impl<'a, T: Scalar> Junction<'a, T> {
                     format!("M_s = Omega_{n} R^{n} sigma,  Omega_{n} = {omega:.12}"),
                     format!("M_{{s}}={om_l}\\,R^{{{n}}}\\sigma"),
                 ));
-                let (xt, xl) = signed_pair(np, nm, &|sd| (format!("W_{sd} Phi'_{sd}"), format!("W_{{{sd}}}\\Phi_{{{sd}}}'")));
-                let flux_t = if a_equals_b { "Xi = 0 (A = B on both sides)".to_string() } else { format!("Xi = ({n}/(8 pi R)) ({xt})") };
-                let flux_l = if a_equals_b { "\\Xi=0".to_string() } else { format!("\\Xi=\\frac{{{n}}}{{8\\pi R}}\\left({xl}\\right)") };
+                let (xt, xl) =
+                    signed_pair(np, nm, &|sd| (format!("W_{sd} Phi'_{sd}"), format!("W_{{{sd}}}\\Phi_{{{sd}}}'")));
+                let flux_t = if a_equals_b {
+                    "Xi = 0 (A = B on both sides)".to_string()
+                } else {
+                    format!("Xi = ({n}/(8 pi R)) ({xt})")
+                };
+                let flux_l = if a_equals_b {
+                    "\\Xi=0".to_string()
+                } else {
+                    format!("\\Xi=\\frac{{{n}}}{{8\\pi R}}\\left({xl}\\right)")
+                };
                 out.push(f(
                     "conservation",
                     format!("d sigma/dR = -({n}/R)(sigma + p) + Xi,  {flux_t}"),
-                    format!("\\frac{{d\\sigma}}{{dR}}=-\\frac{{{n}}}{{R}}\\left(\\sigma+p\\right)+\\Xi,\\qquad {flux_l}"),
+                    format!(
+                        "\\frac{{d\\sigma}}{{dR}}=-\\frac{{{n}}}{{R}}\\left(\\sigma+p\\right)+\\Xi,\\qquad {flux_l}"
+                    ),
                 ));
                 out.push(f(
                     "stability",
                     "beta^2 = dp/dsigma at a0;  V''(a0) = c0 + c1 beta^2;  stable iff V''(a0) > 0".to_string(),
-                    "\\beta^{2}=\\left.\\frac{dp}{d\\sigma}\\right|_{a_0},\\qquad V''(a_0)=c_0+c_1\\beta^{2}>0".to_string(),
+                    "\\beta^{2}=\\left.\\frac{dp}{d\\sigma}\\right|_{a_0},\\qquad V''(a_0)=c_0+c_1\\beta^{2}>0"
+                        .to_string(),
                 ));
             }
             ShellKind::Spacelike => {

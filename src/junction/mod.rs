@@ -29,7 +29,7 @@ use crate::scenario::{Keep, Scenario, ShellKind, Which};
 use num_dual::Dual3;
 
 pub use conditions::EnergyConditions;
-pub use lanczos::{Stress, StaticValues};
+pub use lanczos::{StaticValues, Stress};
 pub use stability::{LinearStability, StableWhen};
 
 /// A(r), B(r) and their first three radial derivatives at one radius.
@@ -128,7 +128,8 @@ impl<'a, T: Scalar> Junction<'a, T> {
             Which::Minus => (self.minus_a, self.minus_b),
             Which::Plus => (self.plus_a, self.plus_b),
         };
-        const WHAT: [&str; 4] = ["", "the first derivative of ", "the second derivative of ", "the third derivative of "];
+        const WHAT: [&str; 4] =
+            ["", "the first derivative of ", "the second derivative of ", "the third derivative of "];
         for (k, what) in WHAT.iter().enumerate().take(order.min(3) + 1) {
             for (name, e, v) in [("A", ea, jet.a[k].re()), ("B", eb, jet.b[k].re())] {
                 if !v.is_finite() {

@@ -65,11 +65,17 @@ struct Mapper {
 impl Mapper {
     fn px(&self, (x, y): (f64, f64)) -> (f64, f64) {
         let (l, t, r, b) = self.plot;
-        (l + (x - self.w.x0) / (self.w.x1 - self.w.x0) * (r - l), b - (y - self.w.y0) / (self.w.y1 - self.w.y0) * (b - t))
+        (
+            l + (x - self.w.x0) / (self.w.x1 - self.w.x0) * (r - l),
+            b - (y - self.w.y0) / (self.w.y1 - self.w.y0) * (b - t),
+        )
     }
     fn data(&self, (px, py): (f64, f64)) -> (f64, f64) {
         let (l, t, r, b) = self.plot;
-        (self.w.x0 + (px - l) / (r - l) * (self.w.x1 - self.w.x0), self.w.y0 + (b - py) / (b - t) * (self.w.y1 - self.w.y0))
+        (
+            self.w.x0 + (px - l) / (r - l) * (self.w.x1 - self.w.x0),
+            self.w.y0 + (b - py) / (b - t) * (self.w.y1 - self.w.y0),
+        )
     }
 }
 
@@ -145,7 +151,11 @@ pub(crate) fn draw<DB: DrawingBackend>(fig: &Figure, w: Window, backend: DB, dev
         .y_label_formatter(&yf)
         .label_style(font(style::TICK_PT))
         .axis_desc_style(font(style::LABEL_PT))
-        .axis_style(ShapeStyle { color: rgb((0, 0, 0)).to_rgba(), filled: false, stroke_width: px(style::FRAME_PT) as u32 })
+        .axis_style(ShapeStyle {
+            color: rgb((0, 0, 0)).to_rgba(),
+            filled: false,
+            stroke_width: px(style::FRAME_PT) as u32,
+        })
         .set_all_tick_mark_size(px(3.0))
         .draw()
         .map_err(area_error)?;
@@ -176,7 +186,9 @@ pub(crate) fn draw<DB: DrawingBackend>(fig: &Figure, w: Window, backend: DB, dev
             if !rl.label.is_empty() {
                 let (pos, anchor) = match rl.orientation {
                     Orientation::Vertical => ((p[1].0 + 2.0 * k, p[1].1 + 2.0 * k), Pos::new(HPos::Left, VPos::Top)),
-                    Orientation::Horizontal => ((p[1].0 - 2.0 * k, p[1].1 - 1.5 * k), Pos::new(HPos::Right, VPos::Bottom)),
+                    Orientation::Horizontal => {
+                        ((p[1].0 - 2.0 * k, p[1].1 - 1.5 * k), Pos::new(HPos::Right, VPos::Bottom))
+                    }
                 };
                 let (tw, th) = root.estimate_text_size(&rl.label, &ref_font).map_err(area_error)?;
                 let (tw, th) = (tw as f64, th as f64);
@@ -376,18 +388,31 @@ fn legend<DB: DrawingBackend>(
     let (x, y) = corners.iter().copied().min_by_key(|&c| cover(c)).unwrap_or(corners[0]);
     let edge_colour = rgb((0x99, 0x99, 0x99));
     root.draw(&Rectangle::new([ipt((x, y)), ipt((x + bw, y + bh))], WHITE.mix(0.9).filled())).map_err(area_error)?;
-    stroke(root, &[(x, y), (x + bw, y), (x + bw, y + bh), (x, y + bh), (x, y)], &[], edge_colour, (0.5 * k).round() as i32)?;
+    stroke(
+        root,
+        &[(x, y), (x + bw, y), (x + bw, y + bh), (x, y + bh), (x, y)],
+        &[],
+        edge_colour,
+        (0.5 * k).round() as i32,
+    )?;
     for (i, (label, sample)) in rows.iter().enumerate() {
         let cy = y + pad + row_h * (i as f64 + 0.5);
         let (sx0, sx1) = (x + pad, x + pad + sample_w);
         match sample {
             Sample::Line(ls, c) => {
                 let pattern: Vec<f64> = ls.pattern_pt().iter().map(|v| v * k).collect();
-                stroke(root, &[(sx0, cy), (sx1, cy)], &pattern, rgb(style::colour(*c)), (style::CURVE_PT * k).round() as i32)?;
+                stroke(
+                    root,
+                    &[(sx0, cy), (sx1, cy)],
+                    &pattern,
+                    rgb(style::colour(*c)),
+                    (style::CURVE_PT * k).round() as i32,
+                )?;
             }
             Sample::Swatch(c, alpha) => {
                 let (h0, h1) = (cy - 0.3 * row_h, cy + 0.3 * row_h);
-                root.draw(&Rectangle::new([ipt((sx0, h0)), ipt((sx1, h1))], c.mix(*alpha).filled())).map_err(area_error)?;
+                root.draw(&Rectangle::new([ipt((sx0, h0)), ipt((sx1, h1))], c.mix(*alpha).filled()))
+                    .map_err(area_error)?;
             }
         }
         let tp = ipt((sx1 + gap, cy));

@@ -54,7 +54,8 @@ pub(crate) fn svg_with_family(fig: &Figure, family: &str) -> Result<String> {
 /// Give the SVG its physical size, provenance and (if any) the category map image.
 fn finish_svg(mut svg: String, fig: &Figure, layout: &Layout, (w, h): (u32, u32)) -> Result<String> {
     let old = format!("width=\"{w}\" height=\"{h}\"");
-    let new = format!("width=\"{:.3}cm\" height=\"{:.3}cm\"", style::WIDTH_PT / 72.0 * 2.54, style::HEIGHT_PT / 72.0 * 2.54);
+    let new =
+        format!("width=\"{:.3}cm\" height=\"{:.3}cm\"", style::WIDTH_PT / 72.0 * 2.54, style::HEIGHT_PT / 72.0 * 2.54);
     if !svg.contains(&old) {
         return Err(render_error("unexpected SVG header from the drawing backend"));
     }
@@ -189,10 +190,12 @@ pub(crate) fn pdf_from_svg(svg: &str, provenance: &str, title: Option<&str>) -> 
     let (w_pt, h_pt) = (tree.size().width() * 0.75, tree.size().height() * 0.75);
 
     let mut alloc = Ref::new(1);
-    let (catalog, pages, page, content_ref, info) = (alloc.bump(), alloc.bump(), alloc.bump(), alloc.bump(), alloc.bump());
+    let (catalog, pages, page, content_ref, info) =
+        (alloc.bump(), alloc.bump(), alloc.bump(), alloc.bump(), alloc.bump());
     let mut renumbered = std::collections::HashMap::new();
     let chunk = chunk.renumber(|old| *renumbered.entry(old).or_insert_with(|| alloc.bump()));
-    let svg_ref = *renumbered.get(&svg_ref).ok_or_else(|| render_error("SVG to PDF conversion lost the figure object"))?;
+    let svg_ref =
+        *renumbered.get(&svg_ref).ok_or_else(|| render_error("SVG to PDF conversion lost the figure object"))?;
 
     let mut pdf = Pdf::new();
     pdf.catalog(catalog).pages(pages);
@@ -248,7 +251,12 @@ mod tests {
         Figure {
             x_label: "a/M".into(),
             y_label: "V(a)".into(),
-            series: vec![Series { label: "V".into(), points: vec![(0.0, 0.0), (1.0, 1.0)], style: LineStyle::Solid, colour: 0 }],
+            series: vec![Series {
+                label: "V".into(),
+                points: vec![(0.0, 0.0), (1.0, 1.0)],
+                style: LineStyle::Solid,
+                colour: 0,
+            }],
             provenance: "unit test".into(),
             ..Figure::default()
         }
@@ -258,7 +266,10 @@ mod tests {
     fn unregistered_font_is_an_error_not_a_blank_file() {
         style::ensure_font().unwrap();
         let fig = small_figure();
-        for e in [svg_with_family(&fig, "no-such-font-family").unwrap_err(), png_with_family(&fig, "no-such-font-family").unwrap_err()] {
+        for e in [
+            svg_with_family(&fig, "no-such-font-family").unwrap_err(),
+            png_with_family(&fig, "no-such-font-family").unwrap_err(),
+        ] {
             assert_eq!(e.kind, ErrorKind::Io);
             assert!(e.message.contains("FontUnavailable"), "{}", e.message);
         }
@@ -299,7 +310,9 @@ mod tests {
     #[test]
     fn base64_matches_rfc4648_test_vectors() {
         // RFC 4648 section 10 test vectors.
-        for (i, o) in [("", ""), ("f", "Zg=="), ("fo", "Zm8="), ("foo", "Zm9v"), ("foob", "Zm9vYg=="), ("foobar", "Zm9vYmFy")] {
+        for (i, o) in
+            [("", ""), ("f", "Zg=="), ("fo", "Zm8="), ("foo", "Zm9v"), ("foob", "Zm9vYg=="), ("foobar", "Zm9vYmFy")]
+        {
             assert_eq!(base64(i.as_bytes()), o);
         }
     }

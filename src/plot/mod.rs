@@ -327,7 +327,8 @@ mod tests {
         let e = plot_window(&fig).unwrap_err();
         assert_eq!(e.kind, ErrorKind::Input);
         assert!(e.message.contains("x_range"));
-        let map = CategoryMap { x: (0.0, 1.0, 2), y: (0.0, 1.0, 2), cells: vec![0, 0, 0], categories: vec![("a".into(), 0)] };
+        let map =
+            CategoryMap { x: (0.0, 1.0, 2), y: (0.0, 1.0, 2), cells: vec![0, 0, 0], categories: vec![("a".into(), 0)] };
         let e = plot_window(&Figure { categories: Some(map.clone()), ..Figure::default() }).unwrap_err();
         assert!(e.message.contains("3 cells"), "{}", e.message);
         let map = CategoryMap { cells: vec![0, 1, 0, 0], ..map };

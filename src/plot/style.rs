@@ -70,12 +70,8 @@ pub(crate) fn ensure_font() -> Result<()> {
     static REGISTERED: OnceLock<std::result::Result<(), String>> = OnceLock::new();
     REGISTERED
         .get_or_init(|| {
-            plotters::style::register_font(
-                FONT_FAMILY,
-                plotters::style::FontStyle::Normal,
-                dejavu::sans::regular(),
-            )
-            .map_err(|_| "the bundled DejaVu Sans font could not be parsed".to_string())
+            plotters::style::register_font(FONT_FAMILY, plotters::style::FontStyle::Normal, dejavu::sans::regular())
+                .map_err(|_| "the bundled DejaVu Sans font could not be parsed".to_string())
         })
         .clone()
         .map_err(render_error)

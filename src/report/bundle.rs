@@ -30,9 +30,8 @@ pub fn plot_range(s: &Scenario) -> Option<(f64, f64)> {
     let (ivs, _) = r_region_intervals(s, s.params.values(), lo, hi, &StaticsOptions::default());
     let l = crate::metric::length_scale(s);
     // Prefer the interval that contains most of [L, 12 L]; fall back to the last one.
-    let iv = ivs
-        .iter()
-        .max_by(|a, b| overlap(a.from, a.to, l, 12.0 * l).total_cmp(&overlap(b.from, b.to, l, 12.0 * l)))?;
+    let iv =
+        ivs.iter().max_by(|a, b| overlap(a.from, a.to, l, 12.0 * l).total_cmp(&overlap(b.from, b.to, l, 12.0 * l)))?;
     let from = iv.from * (1.0 + 1e-3);
     let to = (iv.to * (1.0 - 1e-3)).min((from * 6.0).max(12.0 * l));
     (to > from).then_some((from, to))
@@ -72,7 +71,12 @@ pub fn write_report(s: &Scenario, dir: &Path, opts: &ReportOptions) -> Result<Ve
     let ropts = crate::roots::RootOptions { samples: 4000, ..Default::default() };
     let survey: Vec<(String, crate::metric::SideSurvey)> = [Which::Minus, Which::Plus]
         .iter()
-        .map(|&w| (w.name().to_string(), crate::metric::survey(&crate::metric::SideFns::new(s.side(w), s.params.values()), slo, shi, &ropts)))
+        .map(|&w| {
+            (
+                w.name().to_string(),
+                crate::metric::survey(&crate::metric::SideFns::new(s.side(w), s.params.values()), slo, shi, &ropts),
+            )
+        })
         .collect();
     let survey_json = serde_json::json!({ "provenance": prov, "from": slo, "to": shi, "sides": survey.iter().map(|(n, sv)| serde_json::json!({"side": n, "survey": sv})).collect::<Vec<_>>() });
     out.put("sides.json", pretty(&survey_json).as_bytes(), "horizons, R-/T-regions and photon orbits of each side")?;
@@ -98,36 +102,75 @@ fn pretty(v: &serde_json::Value) -> String {
 
 fn spacelike_part(s: &Scenario, survey: &[(String, crate::metric::SideSurvey)], out: &mut Listing) -> Result<()> {
     // A radius inside both T-regions: the middle of the first common T interval.
-    let t = |i: usize| survey[i].1.regions.iter().filter(|r| r.kind == crate::metric::RegionKind::T).map(|r| (r.from, r.to)).collect::<Vec<_>>();
+    let t = |i: usize| {
+        survey[i]
+            .1
+            .regions
+            .iter()
+            .filter(|r| r.kind == crate::metric::RegionKind::T)
+            .map(|r| (r.from, r.to))
+            .collect::<Vec<_>>()
+    };
     let (tm, tp) = (t(0), t(1));
     let r = tm
         .iter()
         .flat_map(|a| tp.iter().map(move |b| (a.0.max(b.0), a.1.min(b.1))))
         .find(|(lo, hi)| hi > lo)
         .map(|(lo, hi)| 0.5 * (lo + hi))
-        .ok_or_else(|| Error::numerical("no radius lies inside the T-regions of both sides: no static spacelike shell"))?;
+        .ok_or_else(|| {
+            Error::numerical("no radius lies inside the T-regions of both sides: no static spacelike shell")
+        })?;
     let rep = derive(s, State::at_rest(r))?;
-    out.put("formulas.tex", export::derive::latex(&rep).as_bytes(), &format!("junction formulas (LaTeX, amsmath) and values at R = {r}"))?;
-    out.put("derive.json", serde_json::to_string_pretty(&rep).unwrap_or_default().as_bytes(), "all junction quantities at that radius")?;
+    out.put(
+        "formulas.tex",
+        export::derive::latex(&rep).as_bytes(),
+        &format!("junction formulas (LaTeX, amsmath) and values at R = {r}"),
+    )?;
+    out.put(
+        "derive.json",
+        serde_json::to_string_pretty(&rep).unwrap_or_default().as_bytes(),
+        "all junction quantities at that radius",
+    )?;
     out.put("derive.txt", export::derive::text(&rep).as_bytes(), "readable summary")?;
     Ok(())
 }
 
 fn timelike_part(s: &Scenario, opts: &ReportOptions, out: &mut Listing) -> Result<()> {
-    let (lo, hi) = opts
-        .range
-        .or_else(|| plot_range(s))
-        .ok_or_else(|| Error::numerical("no radius where both sides are R-regions: no static timelike shell").with_hint("check the scenario with `junctura check`"))?;
-    let statics = if s.shell.eos.is_some() { Some(find_static_radii(s, lo, hi, &StaticsOptions::default())?) } else { None };
+    let (lo, hi) = opts.range.or_else(|| plot_range(s)).ok_or_else(|| {
+        Error::numerical("no radius where both sides are R-regions: no static timelike shell")
+            .with_hint("check the scenario with `junctura check`")
+    })?;
+    let statics =
+        if s.shell.eos.is_some() { Some(find_static_radii(s, lo, hi, &StaticsOptions::default())?) } else { None };
     let r_ref = statics.as_ref().and_then(|st| st.static_radii.first().map(|r| r.radius)).unwrap_or((lo * hi).sqrt());
     let rep = derive(s, State::at_rest(r_ref))?;
-    out.put("formulas.tex", export::derive::latex(&rep).as_bytes(), &format!("junction formulas (LaTeX, amsmath) and values at a = {r_ref}"))?;
-    out.put("derive.json", serde_json::to_string_pretty(&rep).unwrap_or_default().as_bytes(), "all junction quantities at that radius")?;
+    out.put(
+        "formulas.tex",
+        export::derive::latex(&rep).as_bytes(),
+        &format!("junction formulas (LaTeX, amsmath) and values at a = {r_ref}"),
+    )?;
+    out.put(
+        "derive.json",
+        serde_json::to_string_pretty(&rep).unwrap_or_default().as_bytes(),
+        "all junction quantities at that radius",
+    )?;
     out.put("derive.txt", export::derive::text(&rep).as_bytes(), "readable summary")?;
     if let Some(st) = &statics {
-        out.put("statics.csv", export::statics::statics_csv(st).as_bytes(), "static radii of the equation of state (CSV)")?;
-        out.put("statics.json", serde_json::to_string_pretty(st).unwrap_or_default().as_bytes(), "static radii (JSON)")?;
-        out.put("static_solutions.tex", export::statics::statics_latex(st).as_bytes(), "table of static solutions (LaTeX, booktabs)")?;
+        out.put(
+            "statics.csv",
+            export::statics::statics_csv(st).as_bytes(),
+            "static radii of the equation of state (CSV)",
+        )?;
+        out.put(
+            "statics.json",
+            serde_json::to_string_pretty(st).unwrap_or_default().as_bytes(),
+            "static radii (JSON)",
+        )?;
+        out.put(
+            "static_solutions.tex",
+            export::statics::statics_latex(st).as_bytes(),
+            "table of static solutions (LaTeX, booktabs)",
+        )?;
         if let Some(fig) = figures::potential_figure(s, st) {
             out.figure(&fig, "potential", "potential V(a) around each static radius")?;
         }
@@ -137,15 +180,31 @@ fn timelike_part(s: &Scenario, opts: &ReportOptions, out: &mut Listing) -> Resul
             let opts = crate::dynamics::EvolveOptions::default();
             let kick = crate::dynamics::Start::Kick(0.01 * sr.radius);
             if let Ok(ev) = crate::dynamics::evolve(s, sr.radius, kick, 5.0 * period, None, &opts) {
-                out.put("evolve.csv", export::evolve::evolve_csv(&ev).as_bytes(), &format!("nonlinear motion after a 1% kick from the stable a0 = {:.6}", sr.radius))?;
-                out.put("evolve.json", export::evolve::evolve_json(&ev).as_bytes(), "its summary: measured vs linear period, constraint drift, fate")?;
+                out.put(
+                    "evolve.csv",
+                    export::evolve::evolve_csv(&ev).as_bytes(),
+                    &format!("nonlinear motion after a 1% kick from the stable a0 = {:.6}", sr.radius),
+                )?;
+                out.put(
+                    "evolve.json",
+                    export::evolve::evolve_json(&ev).as_bytes(),
+                    "its summary: measured vs linear period, constraint drift, fate",
+                )?;
                 out.figure(&crate::report::evolve::radius_figure(&ev), "evolve_radius", "R(tau) of that motion")?;
                 let j = crate::junction::Junction::new(s);
-                out.figure(&crate::report::evolve::phase_figure(&j, &ev), "evolve_phase", "the orbit in the (R, dR/dtau) plane over its potential")?;
+                out.figure(
+                    &crate::report::evolve::phase_figure(&j, &ev),
+                    "evolve_phase",
+                    "the orbit in the (R, dR/dtau) plane over its potential",
+                )?;
             }
         }
     }
-    out.figure(&figures::sigma_pressure_figure(s, lo, hi), "sigma_pressure", "sigma0(a), p0(a) with energy-condition bands")?;
+    out.figure(
+        &figures::sigma_pressure_figure(s, lo, hi),
+        "sigma_pressure",
+        "sigma0(a), p0(a) with energy-condition bands",
+    )?;
     // Stability map over (radius, beta^2).
     let (nx, ny) = if opts.map_size.0 > 0 { opts.map_size } else { (240, 180) };
     let x = Axis::new(s, "radius", lo, hi, nx)?;
@@ -159,14 +218,28 @@ fn timelike_part(s: &Scenario, opts: &ReportOptions, out: &mut Listing) -> Resul
         cells.extend_from_slice(l);
     }
     out.put("map_radius_beta2.csv", csv.as_bytes(), "stability map over (a, beta^2): one row per cell")?;
-    out.figure(&figures::map_figure(s.provenance(), &spec, &cells), "map_radius_beta2", "stability regions over (a, beta^2) with the critical curve and energy-condition boundaries")?;
+    out.figure(
+        &figures::map_figure(s.provenance(), &spec, &cells),
+        "map_radius_beta2",
+        "stability regions over (a, beta^2) with the critical curve and energy-condition boundaries",
+    )?;
     if let Some((name, vlo, vhi, n)) = &opts.vary {
         if s.shell.eos.is_some() {
-            let values: Vec<f64> = (0..*n).map(|i| if i + 1 == *n { *vhi } else { vlo + (vhi - vlo) * i as f64 / (*n - 1).max(1) as f64 }).collect();
+            let values: Vec<f64> = (0..*n)
+                .map(|i| if i + 1 == *n { *vhi } else { vlo + (vhi - vlo) * i as f64 / (*n - 1).max(1) as f64 })
+                .collect();
             let sw = sweep(s, name, &values, lo, hi, &StaticsOptions::default())?;
-            out.put("sweep.csv", export::statics::sweep_csv(&sw).as_bytes(), &format!("branches of static radii as {name} varies"))?;
+            out.put(
+                "sweep.csv",
+                export::statics::sweep_csv(&sw).as_bytes(),
+                &format!("branches of static radii as {name} varies"),
+            )?;
             out.put("sweep.json", serde_json::to_string_pretty(&sw).unwrap_or_default().as_bytes(), "branches (JSON)")?;
-            out.figure(&figures::sweep_figure(&sw), "sweep", "static branches: stable solid, unstable dashed, folds marked")?;
+            out.figure(
+                &figures::sweep_figure(&sw),
+                "sweep",
+                "static branches: stable solid, unstable dashed, folds marked",
+            )?;
         }
     }
     Ok(())

@@ -254,11 +254,9 @@ pub fn derive(s: &Scenario, state: State) -> Result<DeriveReport> {
                 rep.v2_at_beta2_zero = Some(ls.v2_at_beta2_zero);
                 rep.v2_slope = Some(ls.v2_slope);
                 rep.flux_term = Some(j.flux_term(&sv));
-                rep.potential_first_derivative =
-                    j.potential_taylor(&sv, Law::Linear { beta2: 0.0 }).map(|v| v[1]);
+                rep.potential_first_derivative = j.potential_taylor(&sv, Law::Linear { beta2: 0.0 }).map(|v| v[1]);
                 if let Some(eos) = &s.shell.eos {
-                    let d: num_dual::Dual64 =
-                        eos.eval_at(num_dual::Dual64::new(sigma, 1.0), s.params.values());
+                    let d: num_dual::Dual64 = eos.eval_at(num_dual::Dual64::new(sigma, 1.0), s.params.values());
                     let v2 = j.potential_taylor(&sv, Law::Scenario).map(|v| v[2]).unwrap_or(f64::NAN);
                     if !(d.re.is_finite() && d.eps.is_finite()) {
                         return Err(crate::Error::numerical(format!(
@@ -296,7 +294,9 @@ pub fn derive(s: &Scenario, state: State) -> Result<DeriveReport> {
         return Err(crate::Error::numerical(format!(
             "radius {r}: {name} is not finite at this shell state (the formulas break down here)"
         ))
-        .with_hint("A or B or their derivatives make this quantity overflow or divide by zero; choose another radius or state"));
+        .with_hint(
+            "A or B or their derivatives make this quantity overflow or divide by zero; choose another radius or state",
+        ));
     }
     Ok(rep)
 }
@@ -318,7 +318,11 @@ fn side_formulas(s: &Scenario) -> Vec<Formula> {
             out.push(Formula {
                 name: format!("{who}_{}", if sign == "+" { "plus" } else { "minus" }),
                 text: format!("{who}_{sign}(r){same} = {},  {who}'_{sign}(r) = {}", e.to_text(), d.to_text()),
-                latex: format!("{who}_{{{sign}}}(r){same_l}={},\\qquad {who}_{{{sign}}}'(r)={}", e.to_latex(), d.to_latex()),
+                latex: format!(
+                    "{who}_{{{sign}}}(r){same_l}={},\\qquad {who}_{{{sign}}}'(r)={}",
+                    e.to_latex(),
+                    d.to_latex()
+                ),
             });
         }
     }
@@ -330,9 +334,25 @@ fn first_non_finite(rep: &DeriveReport) -> Option<&'static str> {
     let mut all: Vec<(&'static str, Option<f64>)> = Vec::new();
     for (side, v) in [("minus", &rep.minus), ("plus", &rep.plus)] {
         let named: [(&'static str, f64); 7] = if side == "minus" {
-            [("A (minus)", v.a), ("B (minus)", v.b), ("A' (minus)", v.a_prime), ("B' (minus)", v.b_prime), ("n^r (minus)", v.n_r), ("K^s_s (minus)", v.k_ss), ("K^theta_theta (minus)", v.k_thth)]
+            [
+                ("A (minus)", v.a),
+                ("B (minus)", v.b),
+                ("A' (minus)", v.a_prime),
+                ("B' (minus)", v.b_prime),
+                ("n^r (minus)", v.n_r),
+                ("K^s_s (minus)", v.k_ss),
+                ("K^theta_theta (minus)", v.k_thth),
+            ]
         } else {
-            [("A (plus)", v.a), ("B (plus)", v.b), ("A' (plus)", v.a_prime), ("B' (plus)", v.b_prime), ("n^r (plus)", v.n_r), ("K^s_s (plus)", v.k_ss), ("K^theta_theta (plus)", v.k_thth)]
+            [
+                ("A (plus)", v.a),
+                ("B (plus)", v.b),
+                ("A' (plus)", v.a_prime),
+                ("B' (plus)", v.b_prime),
+                ("n^r (plus)", v.n_r),
+                ("K^s_s (plus)", v.k_ss),
+                ("K^theta_theta (plus)", v.k_thth),
+            ]
         };
         all.extend(named.iter().map(|&(n, x)| (n, Some(x))));
     }

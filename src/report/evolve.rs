@@ -27,7 +27,8 @@ pub fn phase_figure(j: &Junction<f64>, r: &EvolveReport) -> Figure {
     let (lo, hi) = (r.radius_range[0], r.radius_range[1]);
     let pad = 0.15 * (hi - lo).max(1e-6 * r.static_radius);
     let n = 400;
-    let radii: Vec<f64> = (0..n).map(|i| (lo - pad) + (hi - lo + 2.0 * pad) * i as f64 / (n - 1) as f64).filter(|x| *x > 0.0).collect();
+    let radii: Vec<f64> =
+        (0..n).map(|i| (lo - pad) + (hi - lo + 2.0 * pad) * i as f64 / (n - 1) as f64).filter(|x| *x > 0.0).collect();
     let v = orbit_potential(j, &r.initial, &radii).unwrap_or_else(|_| vec![f64::NAN; radii.len()]);
     let root = |sign: f64| -> Vec<(f64, f64)> {
         radii.iter().zip(&v).map(|(&x, &vv)| (x, if vv <= 0.0 { sign * (-vv).sqrt() } else { f64::NAN })).collect()
@@ -40,7 +41,13 @@ pub fn phase_figure(j: &Junction<f64>, r: &EvolveReport) -> Figure {
             Series { label: String::new(), points: root(-1.0), style: LineStyle::Dashed, colour: 1 },
             Series { label: "orbit".into(), points: orbit, style: LineStyle::Solid, colour: 0 },
         ],
-        markers: vec![Marker { x: r.static_radius, y: 0.0, label: "a₀".into(), filled: r.potential_second_derivative > 0.0, colour: 2 }],
+        markers: vec![Marker {
+            x: r.static_radius,
+            y: 0.0,
+            label: "a₀".into(),
+            filled: r.potential_second_derivative > 0.0,
+            colour: 2,
+        }],
         ref_lines: vec![RefLine::horizontal(0.0, "")],
         provenance: r.provenance.clone(),
         ..Figure::default()

@@ -30,9 +30,22 @@ pub fn axis_label(kind: AxisKind, name: &str) -> String {
 /// Parameter names that are Greek letters print as the letter.
 pub fn greek(name: &str) -> String {
     let table = [
-        ("alpha", "α"), ("beta", "β"), ("gamma", "γ"), ("delta", "δ"), ("epsilon", "ε"), ("lambda", "λ"),
-        ("Lambda", "Λ"), ("mu", "μ"), ("nu", "ν"), ("omega", "ω"), ("phi", "φ"), ("rho", "ρ"), ("tau", "τ"),
-        ("theta", "θ"), ("xi", "ξ"), ("kappa", "κ"),
+        ("alpha", "α"),
+        ("beta", "β"),
+        ("gamma", "γ"),
+        ("delta", "δ"),
+        ("epsilon", "ε"),
+        ("lambda", "λ"),
+        ("Lambda", "Λ"),
+        ("mu", "μ"),
+        ("nu", "ν"),
+        ("omega", "ω"),
+        ("phi", "φ"),
+        ("rho", "ρ"),
+        ("tau", "τ"),
+        ("theta", "θ"),
+        ("xi", "ξ"),
+        ("kappa", "κ"),
     ];
     table.iter().find(|(k, _)| *k == name).map(|(_, v)| v.to_string()).unwrap_or_else(|| name.to_string())
 }
@@ -55,7 +68,8 @@ pub fn map_figure(provenance: String, spec: &MapSpec, cells: &[Cell]) -> Figure 
             crit.push((c.ix as usize, c.beta2_critical));
         }
     }
-    let half = |lo: f64, hi: f64, n: usize| if n > 1 { 0.5 * (hi - lo) / (n - 1) as f64 } else { 0.5 * lo.abs().max(1e-3) };
+    let half =
+        |lo: f64, hi: f64, n: usize| if n > 1 { 0.5 * (hi - lo) / (n - 1) as f64 } else { 0.5 * lo.abs().max(1e-3) };
     let (hx, hy) = (half(spec.x.lo, spec.x.hi, nx), half(spec.y.lo, spec.y.hi, ny));
     let categories = vec![
         ("stable".to_string(), colour::STABLE),
@@ -69,12 +83,25 @@ pub fn map_figure(provenance: String, spec: &MapSpec, cells: &[Cell]) -> Figure 
         crit.sort_by_key(|c| c.0);
         let pts: Vec<(f64, f64)> = crit
             .iter()
-            .map(|&(ix, b)| (spec.x.value(ix), if b.is_finite() && b >= spec.y.lo - 10.0 * hy && b <= spec.y.hi + 10.0 * hy { b } else { f64::NAN }))
+            .map(|&(ix, b)| {
+                (
+                    spec.x.value(ix),
+                    if b.is_finite() && b >= spec.y.lo - 10.0 * hy && b <= spec.y.hi + 10.0 * hy {
+                        b
+                    } else {
+                        f64::NAN
+                    },
+                )
+            })
             .collect();
         series.push(Series { label: "β²_c (critical)".into(), points: pts, style: LineStyle::Solid, colour: 4 });
     }
     // Energy-condition boundaries: cell edges across which a condition changes.
-    for (bit, label, col, style) in [(1u8, "null EC boundary", 0usize, LineStyle::DashDot), (2u8, "weak EC boundary", 3usize, LineStyle::Dashed), (8u8, "dominant EC boundary", 6usize, LineStyle::Dotted)] {
+    for (bit, label, col, style) in [
+        (1u8, "null EC boundary", 0usize, LineStyle::DashDot),
+        (2u8, "weak EC boundary", 3usize, LineStyle::Dashed),
+        (8u8, "dominant EC boundary", 6usize, LineStyle::Dotted),
+    ] {
         let mut pts: Vec<(f64, f64)> = Vec::new();
         for iy in 0..ny {
             for ix in 0..nx {
@@ -101,7 +128,12 @@ pub fn map_figure(provenance: String, spec: &MapSpec, cells: &[Cell]) -> Figure 
         x_range: Some((spec.x.lo - hx, spec.x.hi + hx)),
         y_range: Some((spec.y.lo - hy, spec.y.hi + hy)),
         series,
-        categories: Some(CategoryMap { x: (spec.x.lo - hx, spec.x.hi + hx, nx), y: (spec.y.lo - hy, spec.y.hi + hy, ny), cells: grid, categories }),
+        categories: Some(CategoryMap {
+            x: (spec.x.lo - hx, spec.x.hi + hx, nx),
+            y: (spec.y.lo - hy, spec.y.hi + hy, ny),
+            cells: grid,
+            categories,
+        }),
         provenance,
         ..Figure::default()
     }
@@ -129,13 +161,16 @@ pub fn potential_figure(s: &Scenario, rep: &StaticsReport) -> Option<Figure> {
             style: if stable { LineStyle::Solid } else { LineStyle::cycle(i + 1) },
             colour: if stable { colour::STABLE } else { colour::UNSTABLE + i },
         });
-        markers.push(Marker { x: sr.radius, y: 0.0, label: format!("a₀ = {:.3}", sr.radius), filled: stable, colour: if stable { colour::STABLE } else { colour::UNSTABLE } });
+        markers.push(Marker {
+            x: sr.radius,
+            y: 0.0,
+            label: format!("a₀ = {:.3}", sr.radius),
+            filled: stable,
+            colour: if stable { colour::STABLE } else { colour::UNSTABLE },
+        });
     }
     // Zoom the vertical range on the wells and barriers near the static radii.
-    let near: Vec<f64> = series
-        .iter()
-        .flat_map(|s| s.points.iter().filter(|p| p.1.is_finite()).map(|p| p.1))
-        .collect();
+    let near: Vec<f64> = series.iter().flat_map(|s| s.points.iter().filter(|p| p.1.is_finite()).map(|p| p.1)).collect();
     let ymax = near.iter().fold(0.0f64, |m, v| m.max(v.abs())).min(1.0);
     Some(Figure {
         x_label: "a/M".into(),
@@ -185,14 +220,24 @@ pub fn sigma_pressure_figure(s: &Scenario, lo: f64, hi: f64) -> Figure {
             match (f, start) {
                 (true, None) => start = Some(a - 0.5 * step),
                 (false, Some(st)) => {
-                    out.push(Band::XInterval { label: if out.is_empty() { label.to_string() } else { String::new() }, from: st, to: a - 0.5 * step, colour });
+                    out.push(Band::XInterval {
+                        label: if out.is_empty() { label.to_string() } else { String::new() },
+                        from: st,
+                        to: a - 0.5 * step,
+                        colour,
+                    });
                     start = None;
                 }
                 _ => {}
             }
             if k + 1 == flags.len() {
                 if let Some(st) = start {
-                    out.push(Band::XInterval { label: if out.is_empty() { label.to_string() } else { String::new() }, from: st, to: a, colour });
+                    out.push(Band::XInterval {
+                        label: if out.is_empty() { label.to_string() } else { String::new() },
+                        from: st,
+                        to: a,
+                        colour,
+                    });
                 }
             }
         }
@@ -260,12 +305,23 @@ pub fn sweep_figure(rep: &SweepReport) -> Figure {
         }
         flush(&mut run, cur, &mut series);
         for f in &b.folds {
-            markers.push(Marker { x: f.value, y: f.radius, label: "fold".into(), filled: true, colour: colour::MARGINAL });
+            markers.push(Marker {
+                x: f.value,
+                y: f.radius,
+                label: "fold".into(),
+                filled: true,
+                colour: colour::MARGINAL,
+            });
         }
     }
     // Legend entries for the encoding.
     series.push(Series { label: "stable".into(), points: vec![], style: LineStyle::Solid, colour: colour::STABLE });
-    series.push(Series { label: "unstable".into(), points: vec![], style: LineStyle::Dashed, colour: colour::UNSTABLE });
+    series.push(Series {
+        label: "unstable".into(),
+        points: vec![],
+        style: LineStyle::Dashed,
+        colour: colour::UNSTABLE,
+    });
     Figure {
         x_label: greek(&rep.parameter),
         y_label: "a₀/M".into(),
@@ -278,7 +334,11 @@ pub fn sweep_figure(rep: &SweepReport) -> Figure {
 
 /// Figures of a chain run against crossing number: the apex's areal and proper distance to the horizon
 /// (log10, with the threshold drawn), and the Killing energy. Built from `geodesic::series::chain_series`.
-pub fn chain_figures(series: &[crate::geodesic::series::Series], threshold: Option<f64>, provenance: &str) -> Vec<(String, Figure)> {
+pub fn chain_figures(
+    series: &[crate::geodesic::series::Series],
+    threshold: Option<f64>,
+    provenance: &str,
+) -> Vec<(String, Figure)> {
     let log_pts = |s: &crate::geodesic::series::Series| -> Vec<(f64, f64)> {
         s.x.iter().zip(&s.y).map(|(&x, &y)| (x, if y > 0.0 { y.log10() } else { f64::NAN })).collect()
     };
@@ -287,13 +347,21 @@ pub fn chain_figures(series: &[crate::geodesic::series::Series], threshold: Opti
     if let Some(first) = dist.first() {
         let mut fig = Figure {
             x_label: first.x_label.clone(),
-            y_label: format!("log₁₀ distance to horizon [{}]", first.y_label.rsplit('[').next().unwrap_or("]").trim_end_matches(']')),
+            y_label: format!(
+                "log₁₀ distance to horizon [{}]",
+                first.y_label.rsplit('[').next().unwrap_or("]").trim_end_matches(']')
+            ),
             provenance: provenance.to_string(),
             ..Figure::default()
         };
         for (i, s) in dist.iter().enumerate() {
             let label = if s.name.starts_with("areal") { "areal: r_max − r_h" } else { "proper distance" };
-            fig.series.push(Series { label: label.into(), points: log_pts(s), style: LineStyle::cycle(i), colour: i * 3 });
+            fig.series.push(Series {
+                label: label.into(),
+                points: log_pts(s),
+                style: LineStyle::cycle(i),
+                colour: i * 3,
+            });
         }
         if let Some(t) = threshold.filter(|t| *t > 0.0) {
             fig.ref_lines.push(RefLine::horizontal(t.log10(), "threshold"));
@@ -306,7 +374,12 @@ pub fn chain_figures(series: &[crate::geodesic::series::Series], threshold: Opti
             Figure {
                 x_label: e.x_label.clone(),
                 y_label: "log₁₀ E (Killing energy per unit mass)".into(),
-                series: vec![Series { label: "E after each crossing".into(), points: log_pts(e), style: LineStyle::Solid, colour: 0 }],
+                series: vec![Series {
+                    label: "E after each crossing".into(),
+                    points: log_pts(e),
+                    style: LineStyle::Solid,
+                    colour: 0,
+                }],
                 provenance: provenance.to_string(),
                 ..Figure::default()
             },

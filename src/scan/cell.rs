@@ -95,7 +95,7 @@ impl Cell {
 }
 
 /// Counts per class (and per energy condition among cells with a static shell).
-#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, Serialize)]
+#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, Serialize, serde::Deserialize)]
 pub struct Summary {
     /// All cells.
     pub cells: u64,
@@ -230,7 +230,10 @@ impl<'a> Evaluator<'a> {
 
     /// Prepare with a chosen method (the generic one is the reference the fast one is tested against).
     pub fn with_method(s: &'a Scenario, spec: &'a MapSpec, method: Method) -> Result<Evaluator<'a>> {
-        let statics = StaticsOptions { roots: crate::roots::RootOptions { samples: 600, ..Default::default() }, ..Default::default() };
+        let statics = StaticsOptions {
+            roots: crate::roots::RootOptions { samples: 600, ..Default::default() },
+            ..Default::default()
+        };
         let fast = (method == Method::Fast).then(|| FastJunction::new(s));
         Ok(Evaluator { s, spec, statics, fast })
     }
@@ -318,12 +321,23 @@ impl<'a> Evaluator<'a> {
                 let (x, y) = if spec.lines_are_columns() { (other, radius) } else { (radius, other) };
                 emit(self.fast_cell(f, ix, iy, x, y, radius, f.line_result(scratch, jj), &params));
             }
-        } else if let Some(f) = &self.fast.as_ref().filter(|_| spec.x.kind == AxisKind::Radius || spec.y.kind == AxisKind::Radius) {
+        } else if let Some(f) =
+            &self.fast.as_ref().filter(|_| spec.x.kind == AxisKind::Radius || spec.y.kind == AxisKind::Radius)
+        {
             // The line runs along a parameter: per point.
             for jj in 0..n {
                 let (ix, iy, x, y) = xy(jj);
                 let (radius, _) = self.point(x, y, &mut params);
-                emit(self.fast_cell(f, ix, iy, x, y, radius, static_coefficients(&f.shape, radius, &f.point_jets(radius, &params)), &params));
+                emit(self.fast_cell(
+                    f,
+                    ix,
+                    iy,
+                    x,
+                    y,
+                    radius,
+                    static_coefficients(&f.shape, radius, &f.point_jets(radius, &params)),
+                    &params,
+                ));
             }
         } else {
             for jj in 0..n {
@@ -338,7 +352,10 @@ impl<'a> Evaluator<'a> {
                     Ok((sigma, p, c0, c1)) => {
                         let beta2 = match spec.beta2 {
                             Beta2Source::Fixed(b) => b,
-                            _ => j.eos_at(num_dual::Dual64::new(sigma, 1.0), num_dual::Dual64::from).map(|d| d.eps).unwrap_or(f64::NAN),
+                            _ => j
+                                .eos_at(num_dual::Dual64::new(sigma, 1.0), num_dual::Dual64::from)
+                                .map(|d| d.eps)
+                                .unwrap_or(f64::NAN),
                         };
                         let bits = energy_bits(EnergyConditions::evaluate(sigma, p, self.s.dimension));
                         if beta2.is_finite() {
@@ -357,7 +374,17 @@ impl<'a> Evaluator<'a> {
     /// A cell on the fast path from the jets at its radius.
     #[allow(clippy::too_many_arguments)]
     #[inline]
-    fn fast_cell(&self, f: &FastJunction, ix: usize, iy: usize, x: f64, y: f64, radius: f64, res: std::result::Result<StaticCoefficients, CellClass>, params: &[f64]) -> Cell {
+    fn fast_cell(
+        &self,
+        f: &FastJunction,
+        ix: usize,
+        iy: usize,
+        x: f64,
+        y: f64,
+        radius: f64,
+        res: std::result::Result<StaticCoefficients, CellClass>,
+        params: &[f64],
+    ) -> Cell {
         match res {
             Ok(c) => {
                 let beta2 = match self.spec.beta2 {
@@ -378,10 +405,21 @@ impl<'a> Evaluator<'a> {
     /// A cell with a static shell: (sigma, p, c0, c1) at `radius`, classified at `beta2`.
     #[allow(clippy::too_many_arguments)]
     #[inline]
-    fn radius_cell(&self, ix: usize, iy: usize, x: f64, y: f64, radius: f64, beta2: f64, v: (f64, f64, f64, f64), bits: u8) -> Cell {
+    fn radius_cell(
+        &self,
+        ix: usize,
+        iy: usize,
+        x: f64,
+        y: f64,
+        radius: f64,
+        beta2: f64,
+        v: (f64, f64, f64, f64),
+        bits: u8,
+    ) -> Cell {
         let (sigma, p, c0, c1) = v;
         let (v2, class) = classify_v2(c0, c1, beta2);
-        let crit = if c1.abs() > crate::junction::stability::SLOPE_TOL * c0.abs().max(c1.abs()) { -c0 / c1 } else { f64::NAN };
+        let crit =
+            if c1.abs() > crate::junction::stability::SLOPE_TOL * c0.abs().max(c1.abs()) { -c0 / c1 } else { f64::NAN };
         Cell {
             ix: ix as u32,
             iy: iy as u32,

@@ -244,7 +244,12 @@ impl FastJunction {
         let n = scratch.xs.len();
         let xs = &scratch.xs[..n];
         let col = |k: usize, d: usize| &scratch.vals[self.which[k]][d][..n];
-        let (am, bm, ap, bp) = ([col(0, 0), col(0, 1), col(0, 2)], [col(1, 0), col(1, 1), col(1, 2)], [col(2, 0), col(2, 1), col(2, 2)], [col(3, 0), col(3, 1), col(3, 2)]);
+        let (am, bm, ap, bp) = (
+            [col(0, 0), col(0, 1), col(0, 2)],
+            [col(1, 0), col(1, 1), col(1, 2)],
+            [col(2, 0), col(2, 1), col(2, 2)],
+            [col(3, 0), col(3, 1), col(3, 2)],
+        );
         let [o_s, o_p, o_c0, o_c1] = &mut scratch.coef;
         let (o_s, o_p, o_c0, o_c1) = (&mut o_s[..n], &mut o_p[..n], &mut o_c0[..n], &mut o_c1[..n]);
         for j in 0..n {
@@ -262,7 +267,11 @@ impl FastJunction {
     #[inline]
     pub fn line_result(&self, scratch: &LineScratch, j: usize) -> Result<StaticCoefficients, CellClass> {
         let [s, p, c0, c1] = &scratch.coef;
-        checked(scratch.xs[j], &self.line_jets(scratch, j), StaticCoefficients { sigma: s[j], pressure: p[j], c0: c0[j], c1: c1[j] })
+        checked(
+            scratch.xs[j],
+            &self.line_jets(scratch, j),
+            StaticCoefficients { sigma: s[j], pressure: p[j], c0: c0[j], c1: c1[j] },
+        )
     }
 
     /// Jets at point `j` of the line last evaluated by [`FastJunction::eval_line`].

@@ -38,7 +38,8 @@ fn agree(s: &Scenario, params: &[f64], a: f64, what: &str) -> bool {
             for (name, x, y) in [("sigma", sg, f.sigma), ("p", pg, f.pressure)] {
                 assert!(close(x, y, 0.0), "{what} a = {a}: {name} generic {x} fast {y}");
             }
-            for (name, x, y) in [("c0", c0g, f.c0), ("c1", c1g, f.c1), ("c0 batch", c0g, b.c0), ("c1 batch", c1g, b.c1)] {
+            for (name, x, y) in [("c0", c0g, f.c0), ("c1", c1g, f.c1), ("c0 batch", c0g, b.c0), ("c1 batch", c1g, b.c1)]
+            {
                 assert!(close(x, y, scale), "{what} a = {a}: {name} generic {x} fast {y}");
             }
             true
@@ -110,7 +111,8 @@ fn fast_path_matches_generic_at_random_points_with_flux_and_higher_dimension() {
             let text = GENERAL.replace("DIM", &dim.to_string()).replace("KEEP", keep);
             let s = Scenario::parse(&text, None).unwrap();
             for _ in 0..300 {
-                let params = [rng.uniform(0.1, 2.0), rng.uniform(0.1, 2.0), rng.uniform(-0.5, 0.8), rng.uniform(0.0, 1.0)];
+                let params =
+                    [rng.uniform(0.1, 2.0), rng.uniform(0.1, 2.0), rng.uniform(-0.5, 0.8), rng.uniform(0.0, 1.0)];
                 let a = rng.uniform(0.2, 15.0);
                 found += usize::from(agree(&s, &params, a, &format!("D = {dim}, minus keeps {keep}, {params:?}")));
             }
@@ -121,7 +123,12 @@ fn fast_path_matches_generic_at_random_points_with_flux_and_higher_dimension() {
 
 #[test]
 fn identical_metric_functions_are_compiled_once() {
-    let s = Scenario::parse(&std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/scenarios/reissner-nordstrom-wormhole.toml")).unwrap(), None).unwrap();
+    let s = Scenario::parse(
+        &std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/scenarios/reissner-nordstrom-wormhole.toml"))
+            .unwrap(),
+        None,
+    )
+    .unwrap();
     assert_eq!(FastJunction::new(&s).distinct_functions(), 1);
     let t = Scenario::parse(&GENERAL.replace("DIM", "4").replace("KEEP", "outer"), None).unwrap();
     assert_eq!(FastJunction::new(&t).distinct_functions(), 4);
@@ -140,7 +147,10 @@ fn fast_maps_equal_generic_maps() {
         (&rn, MapSpec::new(&rn, ax(&rn, "beta2", -3.0, 3.0, 17), ax(&rn, "radius", 1.2, 8.0, 23), None, (1.0, 9.0))),
         (&rn, MapSpec::new(&rn, ax(&rn, "radius", 1.05, 8.0, 31), ax(&rn, "q", 0.0, 1.2, 19), Some(-0.5), (1.0, 9.0))),
         (&rn, MapSpec::new(&rn, ax(&rn, "q", 0.0, 1.2, 19), ax(&rn, "radius", 1.05, 8.0, 31), Some(0.4), (1.0, 9.0))),
-        (&grav, MapSpec::new(&grav, ax(&grav, "radius", 1.5, 7.0, 29), ax(&grav, "w", -1.0, 1.0, 13), None, (1.0, 9.0))),
+        (
+            &grav,
+            MapSpec::new(&grav, ax(&grav, "radius", 1.5, 7.0, 29), ax(&grav, "w", -1.0, 1.0, 13), None, (1.0, 9.0)),
+        ),
     ];
     for (k, (s, spec)) in specs.into_iter().enumerate() {
         let spec = spec.unwrap();

@@ -38,10 +38,8 @@ impl Axis {
             "radius" => AxisKind::Radius,
             "beta2" => AxisKind::Beta2,
             p => AxisKind::Param(s.params.index(p).map_err(|e| {
-                e.context(format!("map axis '{p}'")).with_hint(format!(
-                    "an axis is 'radius', 'beta2' or a parameter ({})",
-                    s.params.names().join(", ")
-                ))
+                e.context(format!("map axis '{p}'"))
+                    .with_hint(format!("an axis is 'radius', 'beta2' or a parameter ({})", s.params.names().join(", ")))
             })?),
         };
         if n == 0 {
@@ -101,34 +99,42 @@ impl MapSpec {
     /// Validate a pair of axes against the scenario.
     pub fn new(s: &Scenario, x: Axis, y: Axis, beta2: Option<f64>, radius_range: (f64, f64)) -> Result<MapSpec> {
         if x.kind == y.kind {
-            return Err(Error::input(format!("the two map axes are both '{}'", x.name)).with_hint("choose two different axes"));
+            return Err(
+                Error::input(format!("the two map axes are both '{}'", x.name)).with_hint("choose two different axes")
+            );
         }
         if s.shell.kind != crate::scenario::ShellKind::Timelike {
-            return Err(Error::input("maps of static shells need a timelike shell").with_hint("set [shell] kind = \"timelike\""));
+            return Err(Error::input("maps of static shells need a timelike shell")
+                .with_hint("set [shell] kind = \"timelike\""));
         }
         let has_radius = x.kind == AxisKind::Radius || y.kind == AxisKind::Radius;
         let has_beta = x.kind == AxisKind::Beta2 || y.kind == AxisKind::Beta2;
-        let source = match (has_radius, has_beta, beta2, s.shell.eos.is_some()) {
-            (_, true, Some(_), _) => {
-                return Err(Error::input("--beta2 given while beta2 is an axis").with_hint("drop --beta2"))
-            }
-            (true, true, None, _) => Beta2Source::Axis,
-            (true, false, Some(b), _) => Beta2Source::Fixed(b),
-            (true, false, None, true) => Beta2Source::Law,
-            (true, false, None, false) => {
-                return Err(Error::input("the map needs beta^2: make 'beta2' an axis, give --beta2 VALUE, or add [shell] pressure = \"...\"")
-                    .with_hint("e.g. --y beta2:-3:3:200"))
-            }
-            (false, true, _, _) => {
-                return Err(Error::input("a beta2 axis needs a radius axis (beta^2 is a property of a static shell at a given radius)")
+        let source =
+            match (has_radius, has_beta, beta2, s.shell.eos.is_some()) {
+                (_, true, Some(_), _) => {
+                    return Err(Error::input("--beta2 given while beta2 is an axis").with_hint("drop --beta2"))
+                }
+                (true, true, None, _) => Beta2Source::Axis,
+                (true, false, Some(b), _) => Beta2Source::Fixed(b),
+                (true, false, None, true) => Beta2Source::Law,
+                (true, false, None, false) => return Err(Error::input(
+                    "the map needs beta^2: make 'beta2' an axis, give --beta2 VALUE, or add [shell] pressure = \"...\"",
+                )
+                .with_hint("e.g. --y beta2:-3:3:200")),
+                (false, true, _, _) => {
+                    return Err(Error::input(
+                        "a beta2 axis needs a radius axis (beta^2 is a property of a static shell at a given radius)",
+                    )
                     .with_hint("e.g. --x radius:2.1:10:300 --y beta2:-3:3:200"))
-            }
-            (false, false, _, false) => {
-                return Err(Error::input("a map over two parameters needs an equation of state to decide the static radii")
+                }
+                (false, false, _, false) => {
+                    return Err(Error::input(
+                        "a map over two parameters needs an equation of state to decide the static radii",
+                    )
                     .with_hint("add [shell] pressure = \"...\" or make one axis 'radius'"))
-            }
-            (false, false, _, true) => Beta2Source::StaticRadii,
-        };
+                }
+                (false, false, _, true) => Beta2Source::StaticRadii,
+            };
         let cells = (x.n as u128) * (y.n as u128);
         if cells > 1u128 << 40 {
             return Err(Error::input(format!("{} x {} = {cells} cells is beyond what one run can address", x.n, y.n))

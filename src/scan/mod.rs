@@ -28,7 +28,12 @@ pub fn evaluate_lines(s: &Scenario, spec: &MapSpec, lines: std::ops::Range<usize
 }
 
 /// As [`evaluate_lines`] with a chosen method (the generic one is the reference).
-pub fn evaluate_lines_with(s: &Scenario, spec: &MapSpec, lines: std::ops::Range<usize>, method: Method) -> Result<Vec<Vec<Cell>>> {
+pub fn evaluate_lines_with(
+    s: &Scenario,
+    spec: &MapSpec,
+    lines: std::ops::Range<usize>,
+    method: Method,
+) -> Result<Vec<Vec<Cell>>> {
     let ev = cell::Evaluator::with_method(s, spec, method)?;
     Ok(lines.into_par_iter().map_init(fast::LineScratch::default, |sc, i| ev.line_with(i, sc)).collect())
 }
@@ -40,7 +45,12 @@ pub fn summarize_lines(s: &Scenario, spec: &MapSpec, lines: std::ops::Range<usiz
 }
 
 /// As [`summarize_lines`] with a chosen method.
-pub fn summarize_lines_with(s: &Scenario, spec: &MapSpec, lines: std::ops::Range<usize>, method: Method) -> Result<Summary> {
+pub fn summarize_lines_with(
+    s: &Scenario,
+    spec: &MapSpec,
+    lines: std::ops::Range<usize>,
+    method: Method,
+) -> Result<Summary> {
     let ev = cell::Evaluator::with_method(s, spec, method)?;
     Ok(lines
         .into_par_iter()

@@ -281,7 +281,9 @@ impl Scenario {
                 msg.push_str(&format!(":{l}:{c}"));
             }
             msg.push_str(&format!(": {}", e.message()));
-            Error::input(msg).with_hint("see the scenario format in the README (keys: name, dimension, [parameters], [minus], [plus], [shell])")
+            Error::input(msg).with_hint(
+                "see the scenario format in the README (keys: name, dimension, [parameters], [minus], [plus], [shell])",
+            )
         })?;
         let at = |offset: usize| {
             let (l, c) = line_col(text, offset);
@@ -311,7 +313,9 @@ impl Scenario {
             }
             if RESERVED.contains(&k.as_str()) || Func::from_name(k).is_some() {
                 return Err(Error::input(format!("{loc}: '{k}' is reserved and cannot be a parameter name"))
-                    .with_hint("r is the radius, sigma the surface energy density, pi the constant; rename the parameter"));
+                    .with_hint(
+                        "r is the radius, sigma the surface energy density, pi the constant; rename the parameter",
+                    ));
             }
             let x = match v {
                 toml::Value::Integer(i) => *i as f64,
@@ -360,19 +364,20 @@ impl Scenario {
                 Some(b) => (parse_expr(b, "B")?, true),
                 None => (a.clone(), false),
             };
-            let keep = match rs.keep.get_ref().as_str() {
-                "inner" => Keep::Inner,
-                "outer" => Keep::Outer,
-                "black-hole" => Keep::BlackHole,
-                "white-hole" => Keep::WhiteHole,
-                other => {
-                    return Err(Error::input(format!(
+            let keep =
+                match rs.keep.get_ref().as_str() {
+                    "inner" => Keep::Inner,
+                    "outer" => Keep::Outer,
+                    "black-hole" => Keep::BlackHole,
+                    "white-hole" => Keep::WhiteHole,
+                    other => return Err(Error::input(format!(
                         "{}: [{which}] keep = \"{other}\" is not known",
                         at(rs.keep.span().start)
                     ))
-                    .with_hint("keep is \"inner\" (r < R), \"outer\" (r > R), \"black-hole\" or \"white-hole\" (T-regions)"))
-                }
-            };
+                    .with_hint(
+                        "keep is \"inner\" (r < R), \"outer\" (r > R), \"black-hole\" or \"white-hole\" (T-regions)",
+                    )),
+                };
             let explicit_normal_sign = match &rs.normal_sign {
                 None => None,
                 Some(s) => match *s.get_ref() {
@@ -430,9 +435,9 @@ impl Scenario {
     /// Apply `NAME=VALUE` overrides from the command line.
     pub fn apply_overrides(&mut self, sets: &[String]) -> Result<()> {
         for s in sets {
-            let (k, v) = s.split_once('=').ok_or_else(|| {
-                Error::input(format!("--set {s}: expected NAME=VALUE")).with_hint("e.g. --set m=2")
-            })?;
+            let (k, v) = s
+                .split_once('=')
+                .ok_or_else(|| Error::input(format!("--set {s}: expected NAME=VALUE")).with_hint("e.g. --set m=2"))?;
             let v: f64 = v.trim().parse().map_err(|_| {
                 Error::input(format!("--set {s}: '{}' is not a number", v.trim())).with_hint("e.g. --set q=0.5")
             })?;
@@ -543,7 +548,10 @@ keep = "outer"
 
     #[test]
     fn expression_error_is_located_in_file() {
-        let t = OK.replace("A = \"1 - 2*m/r + q^2/r^2\"\nkeep = \"outer\"\n[plus]", "A = \"1 - 2*m/ * q\"\nkeep = \"outer\"\n[plus]");
+        let t = OK.replace(
+            "A = \"1 - 2*m/r + q^2/r^2\"\nkeep = \"outer\"\n[plus]",
+            "A = \"1 - 2*m/ * q\"\nkeep = \"outer\"\n[plus]",
+        );
         let e = Scenario::parse(&t, None).unwrap_err();
         assert!(e.message.starts_with("<input>:7:"), "{e}");
         assert!(e.message.contains("[minus] A"), "{e}");

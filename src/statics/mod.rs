@@ -162,7 +162,13 @@ pub fn lift_params<T: Scalar>(params: &[f64]) -> Vec<T> {
 }
 
 /// The parts of [lo, hi] where both sides are R-regions (B > 0), with horizons cut out by a small margin.
-pub fn r_region_intervals(s: &Scenario, params: &[f64], lo: f64, hi: f64, opts: &StaticsOptions) -> (Vec<Interval>, Vec<String>) {
+pub fn r_region_intervals(
+    s: &Scenario,
+    params: &[f64],
+    lo: f64,
+    hi: f64,
+    opts: &StaticsOptions,
+) -> (Vec<Interval>, Vec<String>) {
     let mut cuts = vec![];
     let mut notes = vec![];
     for w in [Which::Minus, Which::Plus] {
@@ -192,21 +198,31 @@ pub fn r_region_intervals(s: &Scenario, params: &[f64], lo: f64, hi: f64, opts: 
         if ok {
             out.push(Interval { from: a, to: b });
         } else {
-            notes.push(format!("skipped {:.6} < r < {:.6}: a side is a T-region there (no static timelike shell)", w[0], w[1]));
+            notes.push(format!(
+                "skipped {:.6} < r < {:.6}: a side is a T-region there (no static timelike shell)",
+                w[0], w[1]
+            ));
         }
     }
     (out, notes)
 }
 
 /// Classify one static radius with the scenario's law.
-pub fn classify(s: &Scenario, j: &Junction<f64>, a: f64, double_root: bool, opts: &StaticsOptions) -> Option<StaticRadius> {
+pub fn classify(
+    s: &Scenario,
+    j: &Junction<f64>,
+    a: f64,
+    double_root: bool,
+    opts: &StaticsOptions,
+) -> Option<StaticRadius> {
     let (f, sv) = residual(j, a)?;
     let ls = j.linear_stability(&sv).ok()?;
     let sigma = sv.stress.sigma();
     let beta = j.eos_at(Dual64::new(sigma, 1.0), Dual64::from)?.eps;
     let v = j.potential_taylor(&sv, Law::Scenario)?;
     let scale = ls.v2_at_beta2_zero.abs() + (ls.v2_slope * beta).abs();
-    let near = [0usize, 1].iter().any(|&i| sv.jets[i].b[0].abs() <= opts.near_horizon * (1.0 + a * sv.jets[i].b[1].abs()));
+    let near =
+        [0usize, 1].iter().any(|&i| sv.jets[i].b[0].abs() <= opts.near_horizon * (1.0 + a * sv.jets[i].b[1].abs()));
     Some(StaticRadius {
         radius: a,
         sigma,
@@ -267,7 +283,10 @@ pub fn find_static_radii(s: &Scenario, lo: f64, hi: f64, opts: &StaticsOptions) 
     }
     for w in radii.windows(2) {
         if (w[1].radius - w[0].radius).abs() < 1e-6 * w[0].radius {
-            notes.push(format!("static radii {:.10} and {:.10} are very close: they are near a fold (ill-conditioned)", w[0].radius, w[1].radius));
+            notes.push(format!(
+                "static radii {:.10} and {:.10} are very close: they are near a fold (ill-conditioned)",
+                w[0].radius, w[1].radius
+            ));
         }
     }
     Ok(StaticsReport {

@@ -235,7 +235,14 @@ fn trace(c: &Ctx, x0: [f64; 2], dir: f64, h0: f64, max_steps: usize) -> Vec<[f64
 
 /// Follow every branch of static radii as parameter `name` runs over `values` (sorted, at least 2),
 /// with radii in [a_lo, a_hi].
-pub fn sweep(s: &Scenario, name: &str, values: &[f64], a_lo: f64, a_hi: f64, opts: &StaticsOptions) -> Result<SweepReport> {
+pub fn sweep(
+    s: &Scenario,
+    name: &str,
+    values: &[f64],
+    a_lo: f64,
+    a_hi: f64,
+    opts: &StaticsOptions,
+) -> Result<SweepReport> {
     sweep_with_progress(s, name, values, a_lo, a_hi, opts, &|_, _| {})
 }
 

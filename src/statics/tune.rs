@@ -115,7 +115,13 @@ pub fn default_param_range(v: f64) -> (f64, f64) {
 }
 
 /// Every value of parameter `name` in `range` for which a static shell sits at radius `a`.
-pub fn tune_at_radius(s: &Scenario, name: &str, a: f64, range: Option<(f64, f64)>, opts: &StaticsOptions) -> Result<TuneReport> {
+pub fn tune_at_radius(
+    s: &Scenario,
+    name: &str,
+    a: f64,
+    range: Option<(f64, f64)>,
+    opts: &StaticsOptions,
+) -> Result<TuneReport> {
     check_eos(s)?;
     let k = s.params.index(name).map_err(|e| e.context("--solve"))?;
     let (lo, hi) = range.unwrap_or_else(|| default_param_range(s.params.values()[k]));
@@ -127,7 +133,9 @@ pub fn tune_at_radius(s: &Scenario, name: &str, a: f64, range: Option<(f64, f64)
     let mut notes = Vec::new();
     let solutions: Vec<TuneSolution> = scan.roots.iter().filter_map(|r| solution(s, k, a, r.x, opts)).collect();
     if solutions.is_empty() {
-        notes.push(format!("no value of {name} in [{lo}, {hi}] puts a static shell at a = {a}; widen the search with --within LO:HI"));
+        notes.push(format!(
+            "no value of {name} in [{lo}, {hi}] puts a static shell at a = {a}; widen the search with --within LO:HI"
+        ));
     }
     for p in scan.poles {
         notes.push(format!("p0 - P(sigma0) changes sign through a pole near {name} = {:.8}: not a solution", p.x));
@@ -176,7 +184,14 @@ fn newton_marginal(s: &Scenario, k: usize, mut a: f64, mut lam: f64) -> Option<(
 }
 
 /// Static and marginally stable configurations with the radius in [lo, hi] and parameter `name` free.
-pub fn tune_marginal(s: &Scenario, name: &str, lo: f64, hi: f64, range: Option<(f64, f64)>, opts: &StaticsOptions) -> Result<TuneReport> {
+pub fn tune_marginal(
+    s: &Scenario,
+    name: &str,
+    lo: f64,
+    hi: f64,
+    range: Option<(f64, f64)>,
+    opts: &StaticsOptions,
+) -> Result<TuneReport> {
     check_eos(s)?;
     let k = s.params.index(name).map_err(|e| e.context("--solve"))?;
     let (plo, phi) = range.unwrap_or_else(|| default_param_range(s.params.values()[k]));
@@ -187,25 +202,25 @@ pub fn tune_marginal(s: &Scenario, name: &str, lo: f64, hi: f64, range: Option<(
     for &a in &radii {
         let f = |lam: f64| eval(s, k, a, lam, false).map(|(f, _)| (f[0], f[2]));
         let scan = find_roots(&f, None::<&fn(f64) -> Option<(f64, f64)>>, plo, phi, &ropts);
-        let row = scan
-            .roots
-            .iter()
-            .filter_map(|r| eval(s, k, a, r.x, true).map(|(_, g)| (r.x, g[0])))
-            .collect();
+        let row = scan.roots.iter().filter_map(|r| eval(s, k, a, r.x, true).map(|(_, g)| (r.x, g[0]))).collect();
         rows.push(row);
     }
     let mut found: Vec<(f64, f64)> = Vec::new();
     for i in 0..radii.len() - 1 {
         for &(lam0, g0) in &rows[i] {
             // The continuation of this static solution at the next radius: the nearest lambda.
-            let Some(&(lam1, g1)) = rows[i + 1].iter().min_by(|x, y| (x.0 - lam0).abs().total_cmp(&(y.0 - lam0).abs())) else {
+            let Some(&(lam1, g1)) = rows[i + 1].iter().min_by(|x, y| (x.0 - lam0).abs().total_cmp(&(y.0 - lam0).abs()))
+            else {
                 continue;
             };
             if g0.signum() != g1.signum() {
                 let w = g0.abs() / (g0.abs() + g1.abs());
                 let (a_s, l_s) = (radii[i] + w * (radii[i + 1] - radii[i]), lam0 + w * (lam1 - lam0));
                 if let Some((a, l)) = newton_marginal(s, k, a_s, l_s) {
-                    if !found.iter().any(|(fa, fl)| (fa - a).abs() < 1e-8 * a && (fl - l).abs() < 1e-8 * l.abs().max(1.0)) {
+                    if !found
+                        .iter()
+                        .any(|(fa, fl)| (fa - a).abs() < 1e-8 * a && (fl - l).abs() < 1e-8 * l.abs().max(1.0))
+                    {
                         found.push((a, l));
                     }
                 }

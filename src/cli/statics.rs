@@ -41,17 +41,22 @@ pub fn run_statics(a: StaticsArgs) -> Result<()> {
     let s = a.scenario.load()?;
     let (lo, hi) = range(a.from, a.to, default_range(&s))?;
     let rep = find_static_radii(&s, lo, hi, &StaticsOptions::default())?;
-    if a.format != Fmt::Text {
-        for n in &rep.notes {
+    emit(a.format, &rep, &rep.notes, ex::statics_text, ex::statics_csv);
+    Ok(())
+}
+
+/// Print a report in the chosen format; notes go to stderr unless the text form already shows them.
+fn emit<R: serde::Serialize>(format: Fmt, rep: &R, notes: &[String], text: fn(&R) -> String, csv: fn(&R) -> String) {
+    if format != Fmt::Text {
+        for n in notes {
             warn(n);
         }
     }
-    match a.format {
-        Fmt::Json => print_stdout(&to_json(&rep)),
-        Fmt::Text => print_stdout(&ex::statics_text(&rep)),
-        Fmt::Csv => print_stdout(&ex::statics_csv(&rep)),
+    match format {
+        Fmt::Json => print_stdout(&to_json(rep)),
+        Fmt::Text => print_stdout(&text(rep)),
+        Fmt::Csv => print_stdout(&csv(rep)),
     }
-    Ok(())
 }
 
 /// Arguments of `tune`.
@@ -162,15 +167,6 @@ pub fn run_sweep(a: SweepArgs) -> Result<()> {
     if let Some(b) = bar {
         b.finish_and_clear();
     }
-    if a.format != Fmt::Text {
-        for n in &rep.notes {
-            warn(n);
-        }
-    }
-    match a.format {
-        Fmt::Json => print_stdout(&to_json(&rep)),
-        Fmt::Text => print_stdout(&ex::sweep_text(&rep)),
-        Fmt::Csv => print_stdout(&ex::sweep_csv(&rep)),
-    }
+    emit(a.format, &rep, &rep.notes, ex::sweep_text, ex::sweep_csv);
     Ok(())
 }

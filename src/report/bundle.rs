@@ -120,19 +120,23 @@ fn spacelike_part(s: &Scenario, survey: &[(String, crate::metric::SideSurvey)], 
         .ok_or_else(|| {
             Error::numerical("no radius lies inside the T-regions of both sides: no static spacelike shell")
         })?;
+    put_derive(s, out, r, "R")
+}
+
+/// formulas.tex, derive.json and derive.txt for a static shell at radius `r`.
+fn put_derive(s: &Scenario, out: &mut Listing, r: f64, symbol: &str) -> Result<()> {
     let rep = derive(s, State::at_rest(r))?;
     out.put(
         "formulas.tex",
         export::derive::latex(&rep).as_bytes(),
-        &format!("junction formulas (LaTeX, amsmath) and values at R = {r}"),
+        &format!("junction formulas (LaTeX, amsmath) and values at {symbol} = {r}"),
     )?;
     out.put(
         "derive.json",
         serde_json::to_string_pretty(&rep).unwrap_or_default().as_bytes(),
         "all junction quantities at that radius",
     )?;
-    out.put("derive.txt", export::derive::text(&rep).as_bytes(), "readable summary")?;
-    Ok(())
+    out.put("derive.txt", export::derive::text(&rep).as_bytes(), "readable summary")
 }
 
 fn timelike_part(s: &Scenario, opts: &ReportOptions, out: &mut Listing) -> Result<()> {
@@ -143,18 +147,7 @@ fn timelike_part(s: &Scenario, opts: &ReportOptions, out: &mut Listing) -> Resul
     let statics =
         if s.shell.eos.is_some() { Some(find_static_radii(s, lo, hi, &StaticsOptions::default())?) } else { None };
     let r_ref = statics.as_ref().and_then(|st| st.static_radii.first().map(|r| r.radius)).unwrap_or((lo * hi).sqrt());
-    let rep = derive(s, State::at_rest(r_ref))?;
-    out.put(
-        "formulas.tex",
-        export::derive::latex(&rep).as_bytes(),
-        &format!("junction formulas (LaTeX, amsmath) and values at a = {r_ref}"),
-    )?;
-    out.put(
-        "derive.json",
-        serde_json::to_string_pretty(&rep).unwrap_or_default().as_bytes(),
-        "all junction quantities at that radius",
-    )?;
-    out.put("derive.txt", export::derive::text(&rep).as_bytes(), "readable summary")?;
+    put_derive(s, out, r_ref, "a")?;
     if let Some(st) = &statics {
         out.put(
             "statics.csv",

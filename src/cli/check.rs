@@ -1,7 +1,7 @@
 //! `junctura check`: validate a scenario and survey both sides.
 
-use super::common::{range, to_json, Format, ScenarioArgs};
-use junctura::metric::{default_range, survey, RegionKind, SideFns, SideSurvey};
+use super::common::{to_json, Format, RangeArgs, ScenarioArgs};
+use junctura::metric::{survey, RegionKind, SideFns, SideSurvey};
 use junctura::output::print_stdout;
 use junctura::roots::RootOptions;
 use junctura::scenario::{Scenario, Which};
@@ -13,12 +13,8 @@ use serde::Serialize;
 pub struct Args {
     #[command(flatten)]
     scenario: ScenarioArgs,
-    /// Lower end of the radius range (default: 1e-3 times the largest parameter, at least 1e-3).
-    #[arg(long)]
-    from: Option<f64>,
-    /// Upper end of the radius range (default: 1e3 times the largest parameter, at least 1e3).
-    #[arg(long)]
-    to: Option<f64>,
+    #[command(flatten)]
+    range: RangeArgs,
     /// Output format.
     #[arg(long, value_enum, default_value_t = Format::Text)]
     format: Format,
@@ -50,7 +46,7 @@ struct Report<'a> {
 
 pub fn run(args: Args) -> Result<()> {
     let s = args.scenario.load()?;
-    let (lo, hi) = range(args.from, args.to, default_range(&s))?;
+    let (lo, hi) = args.range.resolve(&s)?;
     let report = build(&s, lo, hi);
     match args.format {
         Format::Json => print_stdout(&to_json(&report)),

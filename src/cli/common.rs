@@ -37,6 +37,24 @@ impl ScenarioArgs {
     }
 }
 
+/// The radius range options shared by the commands that search or survey radii.
+#[derive(Args, Debug, Clone)]
+pub struct RangeArgs {
+    /// Lower end of the radius range (default: 1e-3 L, L the largest |parameter|, at least 1).
+    #[arg(long)]
+    pub from: Option<f64>,
+    /// Upper end of the radius range (default: 1e3 L).
+    #[arg(long)]
+    pub to: Option<f64>,
+}
+
+impl RangeArgs {
+    /// The checked range, with the scenario's default range for missing ends.
+    pub fn resolve(&self, s: &Scenario) -> Result<(f64, f64)> {
+        range(self.from, self.to, junctura::metric::default_range(s))
+    }
+}
+
 /// Check an optional radius range given on the command line.
 pub fn range(from: Option<f64>, to: Option<f64>, default: (f64, f64)) -> Result<(f64, f64)> {
     let lo = from.unwrap_or(default.0);

@@ -24,11 +24,8 @@ pub struct MapArgs {
     #[arg(long, allow_hyphen_values = true)]
     beta2: Option<f64>,
     /// Radius range searched for static radii when no axis is the radius.
-    #[arg(long)]
-    from: Option<f64>,
-    /// Upper end of that range.
-    #[arg(long)]
-    to: Option<f64>,
+    #[command(flatten)]
+    range: super::common::RangeArgs,
     /// Write the data and figure to this folder.
     #[arg(long)]
     out: Option<PathBuf>,
@@ -56,7 +53,7 @@ fn build_spec(s: &Scenario, a: &MapArgs) -> Result<MapSpec> {
     let ys = parse_axis("--y", &a.y)?;
     let x = Axis::new(s, &xs.name, xs.lo, xs.hi, xs.n)?;
     let y = Axis::new(s, &ys.name, ys.lo, ys.hi, ys.n)?;
-    let rr = super::common::range(a.from, a.to, junctura::metric::default_range(s))?;
+    let rr = a.range.resolve(s)?;
     if let Some(b) = a.beta2 {
         if !b.is_finite() {
             return Err(Error::input(format!("--beta2 {b} is not a finite number")));

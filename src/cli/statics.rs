@@ -1,9 +1,8 @@
 //! `junctura statics`, `tune` and `sweep`: static radii with an equation of state.
 
-use super::common::{parse_axis, parse_pair, range, to_json, ScenarioArgs};
+use super::common::{parse_axis, parse_pair, range, to_json, RangeArgs, ScenarioArgs};
 use clap::ValueEnum;
 use junctura::export::statics as ex;
-use junctura::metric::default_range;
 use junctura::output::{print_stdout, warn};
 use junctura::statics::sweep::sweep_with_progress;
 use junctura::statics::tune::{tune_at_radius, tune_marginal};
@@ -26,12 +25,8 @@ pub enum Fmt {
 pub struct StaticsArgs {
     #[command(flatten)]
     scenario: ScenarioArgs,
-    /// Lower end of the radius range (default: the R-regions within [1e-3 L, 1e3 L], L the largest parameter).
-    #[arg(long)]
-    from: Option<f64>,
-    /// Upper end of the radius range.
-    #[arg(long)]
-    to: Option<f64>,
+    #[command(flatten)]
+    range: RangeArgs,
     /// Output format.
     #[arg(long, value_enum, default_value_t = Fmt::Text)]
     format: Fmt,
@@ -39,7 +34,7 @@ pub struct StaticsArgs {
 
 pub fn run_statics(a: StaticsArgs) -> Result<()> {
     let s = a.scenario.load()?;
-    let (lo, hi) = range(a.from, a.to, default_range(&s))?;
+    let (lo, hi) = a.range.resolve(&s)?;
     let rep = find_static_radii(&s, lo, hi, &StaticsOptions::default())?;
     emit(a.format, &rep, &rep.notes, ex::statics_text, ex::statics_csv);
     Ok(())
@@ -130,12 +125,8 @@ pub struct SweepArgs {
     /// NAME:LO:HI:N — the parameter and its N values (both ends included).
     #[arg(long, allow_hyphen_values = true)]
     vary: String,
-    /// Lower end of the radius range.
-    #[arg(long)]
-    from: Option<f64>,
-    /// Upper end of the radius range.
-    #[arg(long)]
-    to: Option<f64>,
+    #[command(flatten)]
+    range: RangeArgs,
     /// Output format.
     #[arg(long, value_enum, default_value_t = Fmt::Text)]
     format: Fmt,
@@ -148,7 +139,7 @@ pub fn run_sweep(a: SweepArgs) -> Result<()> {
         return Err(Error::input(format!("--vary {}: N = {} values is more than a sweep needs", a.vary, axis.n))
             .with_hint("use at most 100000 values; for dense 2-D scans use `junctura map`"));
     }
-    let (lo, hi) = range(a.from, a.to, default_range(&s))?;
+    let (lo, hi) = a.range.resolve(&s)?;
     let bar = if std::io::IsTerminal::is_terminal(&std::io::stderr()) && axis.n > 1 {
         let b = indicatif::ProgressBar::new(axis.n as u64);
         b.set_style(

@@ -5,6 +5,9 @@
 //! The closed form is the generic computation of [`crate::junction::Junction::v2_coefficients`] (Picard
 //! expansion of Y = R [K^theta_theta] in second-order dual numbers, then V(R, Y)) written out by hand, so both
 //! paths agree to rounding; the tests compare them on every shipped scenario and on random points.
+//! Sign conventions and sources are those of [`crate::junction`]: n from minus into plus, [X] = X_plus - X_minus,
+//! the Lanczos equation with 8 pi (Israel 1966; Poisson 2004 ch. 3), V''(a0) linear in beta^2 (Poisson & Visser
+//! 1995; Garcia, Lobo & Visser 2012 for A != B and the flux term).
 
 use super::cell::CellClass;
 use crate::expr::Tape;

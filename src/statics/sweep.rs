@@ -105,40 +105,22 @@ impl Ctx<'_> {
     fn inside(&self, x: [f64; 2]) -> bool {
         (-1e-9..=1.0 + 1e-9).contains(&x[0]) && (-1e-9..=1.0 + 1e-9).contains(&x[1])
     }
-    /// Newton at fixed v (parameter) for u.
-    fn polish_at_v(&self, mut x: [f64; 2]) -> Option<[f64; 2]> {
+    /// Newton's method on f along coordinate `axis` (0: u, the radius; 1: v, the parameter), the other held
+    /// fixed; returns the converged point if |f| is then negligible against its gradient.
+    fn newton_along(&self, mut x: [f64; 2], axis: usize) -> Option<[f64; 2]> {
         for _ in 0..50 {
             let (f, g) = self.f(x)?;
-            if g[0] == 0.0 {
+            if g[axis] == 0.0 {
                 return None;
             }
-            let du = -f / g[0];
-            x[0] += du;
-            if du.abs() < 1e-15 {
+            let d = -f / g[axis];
+            x[axis] += d;
+            if d.abs() < 1e-15 {
                 break;
             }
         }
         let (f, g) = self.f(x)?;
         (f.abs() <= 1e-10 * (g[0].abs() + g[1].abs()).max(1e-300)).then_some(x)
-    }
-}
-
-impl Ctx<'_> {
-    /// Newton at fixed u (radius) for v (parameter).
-    fn v_at_u(&self, u: f64, v_guess: f64) -> Option<f64> {
-        let mut x = [u, v_guess];
-        for _ in 0..50 {
-            let (f, g) = self.f(x)?;
-            if g[1] == 0.0 {
-                return None;
-            }
-            let dv = -f / g[1];
-            x[1] += dv;
-            if dv.abs() < 1e-15 {
-                return Some(x[1]);
-            }
-        }
-        None
     }
 }
 
@@ -148,7 +130,7 @@ fn refine_fold(c: &Ctx, x0: [f64; 2], x1: [f64; 2], x2: [f64; 2]) -> Option<(f64
     let is_max = x1[1] > x0[1];
     let sign = if is_max { 1.0 } else { -1.0 };
     let (mut lo, mut hi) = (x0[0].min(x2[0]), x0[0].max(x2[0]));
-    let obj = |u: f64| c.v_at_u(u, x1[1]).map(|v| sign * v);
+    let obj = |u: f64| c.newton_along([u, x1[1]], 1).map(|x| x[1]).map(|v| sign * v);
     let gr = 0.5 * (5f64.sqrt() - 1.0);
     let mut a = hi - gr * (hi - lo);
     let mut b = lo + gr * (hi - lo);
@@ -172,7 +154,7 @@ fn refine_fold(c: &Ctx, x0: [f64; 2], x1: [f64; 2], x2: [f64; 2]) -> Option<(f64
         }
     }
     let u = 0.5 * (lo + hi);
-    let v = c.v_at_u(u, x1[1])?;
+    let v = c.newton_along([u, x1[1]], 1).map(|x| x[1])?;
     Some(c.point_of([u, v]))
 }
 
@@ -300,7 +282,7 @@ pub fn sweep_with_progress(
                 }
                 let tt = if v1 != v0 { (v - v0) / (v1 - v0) } else { 0.0 };
                 let guess = [w[0][0] + tt * (w[1][0] - w[0][0]), v];
-                if let Some(x) = c.polish_at_v(guess) {
+                if let Some(x) = c.newton_along(guess, 0) {
                     let (a, _) = c.point_of(x);
                     if points.iter().any(|p: &(usize, f64)| p.0 == vi && (p.1 - a).abs() < 1e-9 * a) {
                         continue;

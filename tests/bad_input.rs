@@ -60,6 +60,20 @@ fn catalogue() -> Vec<Case> {
     vec![
         // Scenario files.
         case(
+            "symbol_for_unknown_parameter",
+            Some(format!("{BASE}[symbols]\nmm = '\\mu'\n")),
+            derive4,
+            2,
+            &["{S}:14:1", "'mm'", "did you mean 'm'"],
+        ),
+        case(
+            "symbol_not_a_string",
+            Some(format!("{BASE}[symbols]\nw = 3\n")),
+            derive4,
+            2,
+            &["{S}:14:1", "[symbols] w must be a non-empty string"],
+        ),
+        case(
             "malformed_toml",
             Some("name = \"t\"\n[minus\nA = \"1\"\n".into()),
             derive4,

@@ -19,6 +19,9 @@
 //! Validation happens once, here; nothing downstream re-checks.
 
 mod raw;
+mod symbols;
+
+pub use symbols::{latex_to_unicode, Symbols};
 
 use crate::error::{Error, Result};
 use crate::expr::{Expr, Func, ParseError};
@@ -253,6 +256,8 @@ pub struct Scenario {
     pub plus: Side,
     /// Shell kind and equation of state.
     pub shell: Shell,
+    /// How parameters are written in formulas and figures (`[symbols]`).
+    pub symbols: Symbols,
     /// Source text and hash.
     pub origin: Origin,
 }
@@ -282,7 +287,7 @@ impl Scenario {
             }
             msg.push_str(&format!(": {}", e.message()));
             Error::input(msg).with_hint(
-                "see the scenario format in the README (keys: name, dimension, [parameters], [minus], [plus], [shell])",
+                "see the scenario format in the README (keys: name, dimension, [parameters], [minus], [plus], [shell], [symbols])",
             )
         })?;
         let at = |offset: usize| {
@@ -428,8 +433,35 @@ impl Scenario {
                 )
             }
         };
+        let mut symbols = Vec::new();
+        let symbols_at = text.find("[symbols]").unwrap_or(0);
+        for (k, v) in &raw.symbols {
+            let loc = find_key(&text[symbols_at..], k).map(|o| at(symbols_at + o)).unwrap_or_else(|| file.clone());
+            if !params.names().iter().any(|n| n == k) {
+                let hint = match crate::expr::parse::closest(k, params.names().iter().map(|s| s.as_str())) {
+                    Some(s) => format!("did you mean '{s}'? [symbols] names the parameters of [parameters]"),
+                    None => {
+                        "[symbols] gives a symbol to a parameter of [parameters], e.g. lam = '\\lambda'".to_string()
+                    }
+                };
+                return Err(
+                    Error::input(format!("{loc}: [symbols] names '{k}', which is not a parameter")).with_hint(hint)
+                );
+            }
+            match v {
+                toml::Value::String(s) if !s.trim().is_empty() => symbols.push((k.clone(), s.trim().to_string())),
+                other => {
+                    return Err(Error::input(format!(
+                        "{loc}: [symbols] {k} must be a non-empty string (a LaTeX symbol), found {}",
+                        other.type_str()
+                    ))
+                    .with_hint(format!("write e.g. {k} = '\\lambda' (single quotes keep the backslash)")))
+                }
+            }
+        }
+        let symbols = Symbols::new(symbols);
         let name = raw.name.into_inner();
-        Ok(Scenario { name, dimension, params, minus, plus, shell: Shell { kind: shell_kind, eos }, origin })
+        Ok(Scenario { name, dimension, params, minus, plus, shell: Shell { kind: shell_kind, eos }, symbols, origin })
     }
 
     /// Apply `NAME=VALUE` overrides from the command line.

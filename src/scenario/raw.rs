@@ -14,6 +14,9 @@ pub struct RawScenario {
     pub minus: Option<Spanned<RawSide>>,
     pub plus: Option<Spanned<RawSide>>,
     pub shell: Option<RawShell>,
+    /// `[symbols]`: parameter name -> LaTeX symbol.
+    #[serde(default)]
+    pub symbols: toml::Table,
 }
 
 /// One side of the shell.

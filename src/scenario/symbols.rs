@@ -5,8 +5,9 @@
 //! lam = '\lambda'
 //! q2 = 'q_2'
 //! ```
-//! A parameter without an entry is written as its name: one letter as is, a letter followed by digits with the
-//! digits as a subscript (`q2` -> `q_{2}`), any other multi-letter name upright (`\mathrm{name}`).
+//! A parameter without an entry is written by [`crate::expr::print::name_latex`]: one letter as is, Greek names
+//! as their commands, trailing digits or the part after `_` as a subscript (`q2` -> `q_{2}`), any other
+//! multi-letter name upright (`\mathrm{name}`).
 
 use std::collections::BTreeMap;
 
@@ -49,18 +50,7 @@ impl Symbols {
 }
 
 fn default_latex(name: &str) -> String {
-    let letters: String = name.chars().take_while(|c| c.is_ascii_alphabetic()).collect();
-    let rest = &name[letters.len()..];
-    if letters.chars().count() == 1 && rest.is_empty() {
-        return name.to_string();
-    }
-    if letters.chars().count() == 1 && !rest.is_empty() && rest.chars().all(|c| c.is_ascii_digit()) {
-        return format!("{letters}_{{{rest}}}");
-    }
-    if let Some(g) = GREEK.iter().find(|(n, _)| *n == name) {
-        return format!("\\{}", g.0);
-    }
-    format!("\\mathrm{{{}}}", name.replace('_', "\\_"))
+    crate::expr::print::name_latex(name)
 }
 
 /// Greek letters by LaTeX name and Unicode character.
@@ -253,7 +243,7 @@ mod tests {
         assert_eq!(s.latex("m"), "m");
         assert_eq!(s.latex("q2"), "q_{2}");
         assert_eq!(s.latex("lambda"), "\\lambda");
-        assert_eq!(s.latex("mass_ratio"), "\\mathrm{mass\\_ratio}");
+        assert_eq!(s.latex("mass"), "\\mathrm{mass}");
         assert_eq!(s.unicode("q2"), "q₂");
         assert_eq!(s.unicode("lambda"), "λ");
     }

@@ -116,24 +116,60 @@ pub fn horizons(fns: &SideFns, lo: f64, hi: f64, opts: &RootOptions) -> (Vec<Hor
 }
 
 /// R- and T-regions on [lo, hi] given the horizons there.
+///
+/// Every horizon cuts the range, simple or degenerate, and so does every pole of B; the kind of each piece is
+/// the sign of B at its midpoint (geometric midpoint when the piece spans more than two decades). Pieces are
+/// not merged across a horizon: a degenerate (double) horizon such as r = M of extremal Reissner-Nordstrom,
+/// B = (1 - M/r)^2, separates two R-regions, which are reported as two regions of the same kind with the
+/// double horizon between them (B >= 0 on both sides; common practice, e.g. Carter 1966 for the extremal
+/// case, from memory). Only a pole between two pieces of the same kind is merged over.
 pub fn regions(fns: &SideFns, lo: f64, hi: f64, horizons: &[Horizon], poles: &[f64]) -> Vec<Region> {
-    let mut cuts: Vec<f64> = horizons.iter().filter(|h| !h.degenerate).map(|h| h.radius).collect();
-    cuts.extend(poles);
-    cuts.sort_by(|a, b| a.total_cmp(b));
-    let mut edges = vec![lo];
-    edges.extend(cuts.into_iter().filter(|c| *c > lo && *c < hi));
-    edges.push(hi);
+    let mut cuts: Vec<(f64, bool)> = horizons.iter().map(|h| (h.radius, true)).collect();
+    cuts.extend(poles.iter().map(|&p| (p, false)));
+    cuts.sort_by(|a, b| a.0.total_cmp(&b.0));
+    let mut edges = vec![(lo, false)];
+    edges.extend(cuts.into_iter().filter(|c| c.0 > lo && c.0 < hi));
+    edges.push((hi, false));
     let mut out: Vec<Region> = Vec::new();
     for w in edges.windows(2) {
-        let mid = if w[0] > 0.0 && w[1] / w[0] > 100.0 { (w[0] * w[1]).sqrt() } else { 0.5 * (w[0] + w[1]) };
-        let b: f64 = fns.b(mid);
-        let kind = if b > 0.0 { RegionKind::R } else { RegionKind::T };
+        let (x0, x1) = (w[0].0, w[1].0);
+        let mid = if x0 > 0.0 && x1 / x0 > 100.0 { (x0 * x1).sqrt() } else { 0.5 * (x0 + x1) };
+        let kind = region_kind_at(fns, mid, x0, x1);
+        let horizon_before = w[0].1;
         match out.last_mut() {
-            Some(last) if last.kind == kind => last.to = w[1],
-            _ => out.push(Region { from: w[0], to: w[1], kind }),
+            Some(last) if last.kind == kind && !horizon_before => last.to = x1,
+            _ => out.push(Region { from: x0, to: x1, kind }),
         }
     }
     out
+}
+
+/// The kind of region at `mid`, a point of (x0, x1) between horizons: the sign of B there, and if B happens to
+/// vanish to rounding at that point (a horizon missed by the sampler), the sign at the quarter points.
+fn region_kind_at(fns: &SideFns, mid: f64, x0: f64, x1: f64) -> RegionKind {
+    let mut b: f64 = fns.b(mid);
+    if b == 0.0 || !b.is_finite() {
+        let q = [0.5 * (x0 + mid), 0.5 * (mid + x1)];
+        b = q.iter().map(|&x| fns.b(x)).find(|v: &f64| *v != 0.0 && v.is_finite()).unwrap_or(b);
+    }
+    if b > 0.0 {
+        RegionKind::R
+    } else {
+        RegionKind::T
+    }
+}
+
+/// The region kind of a side at one radius (sign of B; a horizon counts as the region of neither kind and
+/// returns `None`, as does a non-finite B).
+pub fn region_at(fns: &SideFns, r: f64) -> Option<RegionKind> {
+    let b: f64 = fns.b(r);
+    if !b.is_finite() || b == 0.0 {
+        None
+    } else if b > 0.0 {
+        Some(RegionKind::R)
+    } else {
+        Some(RegionKind::T)
+    }
 }
 
 /// Circular photon orbits: extrema of A/r^2, i.e. roots of r A' - 2 A, kept where B > 0 and A > 0.
@@ -213,5 +249,40 @@ mod tests {
         assert_eq!(hs.len(), 1);
         assert!(hs[0].degenerate);
         assert!((hs[0].radius - 1.0).abs() < 1e-8);
+    }
+
+    /// Extremal Reissner-Nordstrom, B = (1 - M/r)^2 >= 0: an R-region on both sides of the double horizon r = M
+    /// (B > 0 for r != M; common practice). Regression: the geometric midpoint of the default range landed
+    /// exactly on r = M and the whole range was called a T-region.
+    #[test]
+    fn extremal_exterior_is_an_r_region_on_both_sides_of_the_double_horizon() {
+        let names = vec!["m".to_string()];
+        let e = Expr::parse("(1 - m/r)^2", "r", &names).unwrap();
+        let p = [1.3];
+        let fns = SideFns { a: &e, b: &e, params: &p };
+        let s = survey(&fns, 1.3e-3, 1.3e3, &RootOptions::default());
+        assert_eq!(s.horizons.len(), 1, "{:?}", s.horizons);
+        assert!(s.horizons[0].degenerate);
+        assert!((s.horizons[0].radius - 1.3).abs() < 1e-7);
+        let kinds: Vec<RegionKind> = s.regions.iter().map(|r| r.kind).collect();
+        assert_eq!(kinds, vec![RegionKind::R, RegionKind::R]);
+        assert!((s.regions[0].to - s.horizons[0].radius).abs() < 1e-12);
+    }
+
+    /// A nearly extremal pair of horizons closer together than the sample spacing is still found as two simple
+    /// roots: Reissner-Nordstrom with q = 0.99999 m has r_pm = m (1 +- sqrt(1 - 0.99999^2)) (textbook).
+    #[test]
+    fn nearly_extremal_pair_between_samples_is_split() {
+        let names = vec!["m".to_string(), "q".to_string()];
+        let e = Expr::parse("1 - 2*m/r + q^2/r^2", "r", &names).unwrap();
+        let p = [1.0, 0.99999];
+        let fns = SideFns { a: &e, b: &e, params: &p };
+        let s = survey(&fns, 1e-3, 1e3, &RootOptions::default());
+        let d = (1.0f64 - 0.99999f64 * 0.99999).sqrt();
+        assert_eq!(s.horizons.len(), 2, "{:?}", s.horizons);
+        assert!((s.horizons[0].radius - (1.0 - d)).abs() < 1e-10);
+        assert!((s.horizons[1].radius - (1.0 + d)).abs() < 1e-10);
+        let kinds: Vec<RegionKind> = s.regions.iter().map(|r| r.kind).collect();
+        assert_eq!(kinds, vec![RegionKind::R, RegionKind::T, RegionKind::R]);
     }
 }

@@ -182,7 +182,15 @@ where
             if let Some(g) = fpp {
                 if let Some(x) = refine(g, xs[i], xs[j], opts) {
                     if let Some((fx, dfx)) = f(x) {
-                        if fx.abs() <= opts.double_root_tol * scale.max(f0.abs().max(f1.abs())) {
+                        if fx != 0.0 && fx.signum() != f0.signum() && fx.is_finite() {
+                            // f dips through zero and back between two samples: two simple roots closer than
+                            // the sample spacing (a nearly degenerate pair), one on each side of the extremum.
+                            for (a, b) in [(xs[i], x), (x, xs[j])] {
+                                if let Some(r) = refine(f, a, b, opts) {
+                                    push_root(&mut out, f, r, RootKind::Simple);
+                                }
+                            }
+                        } else if fx.abs() <= opts.double_root_tol * scale.max(f0.abs().max(f1.abs())) {
                             out.roots.push(Root { x, kind: RootKind::Double, residual: fx.abs(), slope: dfx });
                         }
                     }
@@ -247,5 +255,17 @@ mod tests {
         assert_eq!(s.roots.len(), 1);
         assert_eq!(s.roots[0].kind, RootKind::Double);
         assert!((s.roots[0].x - 2.0).abs() < 1e-12);
+    }
+
+    #[test]
+    fn close_pair_between_two_samples_gives_two_simple_roots() {
+        // (x - 2)^2 - 1e-8: roots 2 -+ 1e-4, far closer than the sample spacing 0.047 (exact by construction).
+        let f = |x: f64| Some(((x - 2.0).powi(2) - 1e-8, 2.0 * (x - 2.0)));
+        let g = |x: f64| Some((2.0 * (x - 2.0), 2.0));
+        let s = find_roots(&f, Some(&g), 0.3, 5.0, &RootOptions { samples: 100, ..Default::default() });
+        assert_eq!(s.roots.len(), 2, "{:?}", s.roots);
+        assert!(s.roots.iter().all(|r| r.kind == RootKind::Simple));
+        assert!((s.roots[0].x - (2.0 - 1e-4)).abs() < 1e-12);
+        assert!((s.roots[1].x - (2.0 + 1e-4)).abs() < 1e-12);
     }
 }

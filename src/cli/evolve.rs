@@ -1,4 +1,4 @@
-//! `junctura evolve`: the nonlinear motion of a shell set moving from a static radius.
+//! `junctura evolve`: the nonlinear motion of a shell from any initial data or from a static radius.
 
 use super::common::ScenarioArgs;
 use super::statics::Fmt;
@@ -16,21 +16,30 @@ use std::path::PathBuf;
 pub struct EvolveArgs {
     #[command(flatten)]
     scenario: ScenarioArgs,
-    /// A static radius a0 of the scenario's law (see `junctura statics`); within 1e-3 of one is moved onto it.
+    /// Starting radius R; with --kick or --from-static a static radius a0 of the law (see `junctura statics`),
+    /// within 1e-3 of one is moved onto it.
     #[arg(long)]
     radius: f64,
-    /// Start at rest at a0 + DA.
-    #[arg(
-        long,
-        allow_hyphen_values = true,
-        value_name = "DA",
-        required_unless_present = "velocity",
-        conflicts_with = "velocity"
-    )]
+    /// Start at rest at a0 + DA (a0 = --radius, a static radius).
+    #[arg(long, allow_hyphen_values = true, value_name = "DA", conflicts_with_all = ["velocity", "sigma", "from_static"])]
     kick: Option<f64>,
-    /// Start at a0 with dR/dτ = V0.
-    #[arg(long, allow_hyphen_values = true, value_name = "V0")]
+    /// Start at R with dR/dτ = V (the sign is the direction); σ follows from the junction condition. With
+    /// --from-static: start at the static radius a0 with dR/dτ = V.
+    #[arg(long, allow_hyphen_values = true, value_name = "V", conflicts_with = "sigma")]
     velocity: Option<f64>,
+    /// Start at R with surface energy density S; |dR/dτ| follows from the energy constraint Rdot² + V(R) = 0.
+    #[arg(long, allow_hyphen_values = true, value_name = "S")]
+    sigma: Option<f64>,
+    /// Direction of motion for --sigma (not needed at a turning point).
+    #[arg(long, value_enum, requires = "sigma")]
+    direction: Option<Direction>,
+    /// --radius is a static radius a0 of the law: start there (at rest, or with --velocity) and compare with the
+    /// linearised theory.
+    #[arg(long, conflicts_with = "sigma")]
+    from_static: bool,
+    /// Stop where the shell reaches a horizon of either side instead of crossing it.
+    #[arg(long)]
+    stop_at_horizon: bool,
     /// Proper-time duration T (in the scenario's length unit).
     #[arg(long, value_name = "T")]
     duration: f64,
@@ -51,19 +60,34 @@ pub struct EvolveArgs {
     out: Option<PathBuf>,
 }
 
+/// Direction of motion at the start.
+#[derive(clap::ValueEnum, Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Direction {
+    /// dR/dτ > 0.
+    Outward,
+    /// dR/dτ < 0.
+    Inward,
+}
+
 pub fn run(a: EvolveArgs) -> Result<()> {
     let s = a.scenario.load()?;
-    let start = match (a.kick, a.velocity) {
-        (Some(k), None) => Start::Kick(k),
-        (None, Some(v)) => Start::Velocity(v),
-        _ => return Err(Error::input("give exactly one of --kick DA or --velocity V0").with_hint("e.g. --kick 0.01")),
+    let start = match (a.kick, a.velocity, a.sigma, a.from_static) {
+        (Some(k), None, None, false) => Start::Kick(k),
+        (None, Some(v), None, true) => Start::Velocity(v),
+        (None, None, None, true) => Start::Kick(0.0),
+        (None, Some(v), None, false) => Start::Moving(v),
+        (None, None, Some(sg), false) => Start::Sigma { sigma: sg, outward: a.direction.map(|d| d == Direction::Outward) },
+        _ => {
+            return Err(Error::input("give one of --kick DA, --velocity V or --sigma S (or --from-static)")
+                .with_hint("e.g. --velocity 0 (at rest at --radius), --sigma 0.01 --direction inward, or --kick 0.01 about a static radius"))
+        }
     };
     if a.max_turns == 0 {
         return Err(
             Error::input("--max-turns 0: at least one turning point is needed").with_hint("e.g. --max-turns 20")
         );
     }
-    let opts = EvolveOptions { max_turns: a.max_turns, ..EvolveOptions::default() };
+    let opts = EvolveOptions { max_turns: a.max_turns, stop_at_horizon: a.stop_at_horizon, ..EvolveOptions::default() };
     let ens = a.ensemble.zip(a.spread);
     let rep = evolve(&s, a.radius, start, a.duration, ens, &opts)?;
     for n in &rep.notes {

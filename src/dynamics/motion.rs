@@ -3,13 +3,14 @@
 
 use super::dopri::Vec3;
 use crate::junction::potential::potential_from_y;
-use crate::junction::{Junction, HORIZON_TOL};
+use crate::junction::{phi_prime, Junction, HORIZON_TOL};
 use crate::scenario::Which;
+use num_dual::Dual64;
 
 /// Why the motion cannot be continued from a state (a stop condition).
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Halt {
-    /// B of a side reaches zero: the shell would cross that side's horizon.
+    /// B of a side reaches zero while horizons are not to be crossed (`EvolveOptions::stop_at_horizon`).
     Horizon(Which),
     /// R reaches (numerically) zero.
     Center,
@@ -17,6 +18,8 @@ pub enum Halt {
     NoShellState,
     /// The equation of state is undefined at this sigma (e.g. sigma passes through zero under p = -c/sigma).
     LawUndefined,
+    /// A and B of a side have opposite signs: the metric changes signature there.
+    Signature(Which),
     /// A value became NaN or infinite.
     NonFinite,
 }
@@ -29,6 +32,7 @@ impl Halt {
             Halt::Center => "center",
             Halt::NoShellState => "no_shell_state",
             Halt::LawUndefined => "law_undefined",
+            Halt::Signature(_) => "signature_change",
             Halt::NonFinite => "non_finite",
         }
     }
@@ -43,21 +47,37 @@ pub struct Aux {
     pub constraint: f64,
 }
 
+/// The geometry of one shell state: B and n^r on each side.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Normals {
+    /// B_minus(R), B_plus(R).
+    pub b: [f64; 2],
+    /// n^r on [minus, plus]: X_plus = (Y + [B]/Y)/2, X_minus = ([B]/Y - Y)/2 with Y = -kappa (module docs of
+    /// `junction::potential`); on the constraint surface X_i^2 = Rdot^2 + B_i.
+    pub n_r: [f64; 2],
+}
+
 /// The equations of motion of a timelike shell with the scenario's equation of state p = P(sigma).
 ///
 /// Formulation (this is what is integrated; see the module docs of `junction::potential` and `junction`):
 /// ```text
 /// dR/dtau     = Rdot
-/// dRdot/dtau  = Rddot  from the Lanczos equation  p = S^theta_theta(R, Rdot, Rddot) = P(sigma),
-///               which is linear in Rddot:  Rddot = (P(sigma) - S0) / (S1 - S0),  S0,1 = S^theta_theta at Rddot = 0, 1
 /// dsigma/dtau = Rdot * dsigma/dR,   dsigma/dR = -(D-2)(sigma + p)/R + Xi,
-///               Xi = (D-2)(X_plus Phi_plus' - X_minus Phi_minus')/(8 pi R),  X_i = n^r_i = nu_i sqrt(Rdot^2 + B_i)
+///               Xi = (D-2)(X_plus Phi_plus' - X_minus Phi_minus')/(8 pi R)
+/// dRdot/dtau  = -(1/2) dV/dR,   V(R, Y) = (B_plus + B_minus)/2 - ((B_plus - B_minus)/(2Y))^2 - Y^2/4,
+///               Y = -8 pi R sigma/(D-2), dV/dR the total derivative along sigma(R) above
+/// X_plus = (Y + [B]/Y)/2,  X_minus = ([B]/Y - Y)/2        (the normals n^r_i, from X_plus - X_minus = Y and
+///                                                           X_plus^2 - X_minus^2 = B_plus - B_minus)
 /// ```
-/// (Israel 1966; Poisson 2004 ch. 3; the flux term Xi as in Garcia, Lobo & Visser 2012). The angular junction
-/// condition sigma = -(D-2)[X]/(8 pi R), squared into the energy constraint Rdot^2 + V(R, sigma) = 0 with V from
-/// `potential_from_y` and Y = -8 pi R sigma/(D-2), is not imposed: it is preserved by the exact flow (the
-/// conservation law above is its tau-derivative combined with the theta-theta equation), so its residual
-/// measures the integration error. Sign convention: n points from minus into plus, X_i = nu_i W_i.
+/// (Israel 1966; Poisson 2004 ch. 3; the flux term Xi as in Garcia, Lobo & Visser 2012). Nothing here divides
+/// by B or by W_i = |X_i|: the motion is regular through horizons (B_i = 0, where W_i = |Rdot| stays finite)
+/// and through the zeros of X_i, where the sign of n^r on a side flips (possible only in a T-region, since
+/// X_i^2 = Rdot^2 + B_i). The second-order equation is the tau-derivative of the energy constraint
+/// Rdot^2 + V(R, sigma) = 0, which is therefore a first integral: it holds at the start by construction and its
+/// drift along the run measures the integration error. On the constraint surface this is the Lanczos
+/// theta-theta equation p = S^theta_theta solved for Rddot. Sign convention: n points from minus into plus.
+/// The flux term needs Phi_i' = A_i'/(2A_i) - B_i'/(2B_i), which is exactly zero when A_i = B_i and otherwise
+/// finite through a horizon only if A_i/B_i is regular there.
 #[derive(Debug, Clone)]
 pub struct Motion<'j, 'a> {
     /// The junction (timelike shell with a law).
@@ -76,6 +96,15 @@ impl<'j, 'a> Motion<'j, 'a> {
         Motion { j, singular_at_zero, sigma_sign: if sigma_start < 0.0 { -1.0 } else { 1.0 } }
     }
 
+    /// B and n^r on both sides at radius `r` with surface energy density `sigma` (formulas on [`Motion`]).
+    pub fn normals(&self, r: f64, sigma: f64) -> Normals {
+        let bm = self.j.jet(Which::Minus, r).b[0];
+        let bp = self.j.jet(Which::Plus, r).b[0];
+        let y = -self.j.kappa(r, sigma);
+        let db = bp - bm;
+        Normals { b: [bm, bp], n_r: [0.5 * (db / y - y), 0.5 * (y + db / y)] }
+    }
+
     /// The derivative of y = (R, Rdot, sigma) with respect to proper time, with p and the constraint residual.
     pub fn rhs(&self, y: &Vec3) -> Result<(Vec3, Aux), Halt> {
         let [r, rdot, sigma] = *y;
@@ -88,11 +117,11 @@ impl<'j, 'a> Motion<'j, 'a> {
         let jm = self.j.jet(Which::Minus, r);
         let jp = self.j.jet(Which::Plus, r);
         for (w, jet) in [(Which::Minus, &jm), (Which::Plus, &jp)] {
-            if !(jet.b[0].is_finite() && jet.a[0].is_finite()) {
+            if !(jet.b[0].is_finite() && jet.a[0].is_finite() && jet.b[1].is_finite() && jet.a[1].is_finite()) {
                 return Err(Halt::NonFinite);
             }
-            if jet.b[0] <= 0.0 || jet.a[0] <= 0.0 {
-                return Err(Halt::Horizon(w));
+            if jet.b[0] * jet.a[0] < 0.0 {
+                return Err(Halt::Signature(w));
             }
         }
         if self.singular_at_zero && sigma * self.sigma_sign <= 0.0 {
@@ -102,17 +131,25 @@ impl<'j, 'a> Motion<'j, 'a> {
             Some(p) if p.is_finite() => p,
             _ => return Err(Halt::LawUndefined),
         };
-        let s0 = self.j.stress_with_jets(&jm, &jp, r, rdot, 0.0).map_err(|_| Halt::NoShellState)?;
-        let s1 = self.j.stress_with_jets(&jm, &jp, r, rdot, 1.0).map_err(|_| Halt::NoShellState)?;
-        let rddot = (p - s0.s_thth) / (s1.s_thth - s0.s_thth);
-        let phi = |jet: &crate::junction::Jet<f64>| jet.a[1] / (2.0 * jet.a[0]) - jet.b[1] / (2.0 * jet.b[0]);
         let n_ang = self.j.n_ang();
         let pi8 = 8.0 * std::f64::consts::PI;
-        let flux = s0.n_r[1] * phi(&jp) - s0.n_r[0] * phi(&jm);
+        let yy = -self.j.kappa(r, sigma);
+        if yy == 0.0 {
+            return Err(Halt::NonFinite);
+        }
+        let db = jp.b[0] - jm.b[0];
+        let (xm, xp) = (0.5 * (db / yy - yy), 0.5 * (yy + db / yy));
+        let flux = xp * phi_prime(&jp) - xm * phi_prime(&jm);
         let dsigma_dr = -n_ang * (sigma + p) / r + n_ang * flux / (pi8 * r);
-        let v = potential_from_y(self.j.eps, jm.b[0], jp.b[0], -self.j.kappa(r, sigma));
-        let d = [rdot, rddot, rdot * dsigma_dr];
-        let constraint = rdot * rdot + v;
+        let dy_dr = -(pi8 / n_ang) * (sigma + r * dsigma_dr);
+        let v = potential_from_y(
+            self.j.eps,
+            Dual64::new(jm.b[0], jm.b[1]),
+            Dual64::new(jp.b[0], jp.b[1]),
+            Dual64::new(yy, dy_dr),
+        );
+        let d = [rdot, -0.5 * v.eps, rdot * dsigma_dr];
+        let constraint = rdot * rdot + v.re;
         if !(d.iter().all(|x| x.is_finite()) && constraint.is_finite()) {
             return Err(Halt::NonFinite);
         }

@@ -1,18 +1,24 @@
-//! From a scenario and a static radius to a finished report: validate the static radius, build the starting
-//! state, integrate, analyse, and optionally run the ensemble.
+//! From a scenario and initial data to a finished report: validate the start (a static radius set moving, or
+//! any radius with a velocity or a surface energy density, completed by the energy constraint), integrate,
+//! analyse, and optionally run the ensemble.
 
 use super::analysis::{ensemble_kicks, fate, period, Ensemble, Fate, Member, Period};
-use super::integrate::{integrate, EvolveOptions, Trajectory};
+use super::integrate::{integrate, Event, EvolveOptions, Trajectory};
 use super::motion::Motion;
 use crate::error::{Error, Result};
 use crate::junction::potential::Law;
-use crate::junction::{Junction, StaticValues};
+use crate::junction::stability::{marginal_scale, MARGINAL_TOL};
+use crate::junction::Junction;
+use crate::metric::RegionKind;
+use crate::scenario::Which;
 use crate::scenario::{Scenario, ShellKind};
 use crate::statics::{find_static_radii, residual, StaticsOptions};
 use rayon::prelude::*;
 use serde::Serialize;
 
-/// How the shell is set moving.
+/// How the shell is set moving. `Kick` and `Velocity` start from a static radius a0 of the law (the radius given
+/// is a0); `Moving` and `Sigma` start at the radius given, anywhere (R- or T-regions), from the initial data and
+/// the energy constraint Rdot^2 + V(R, sigma) = 0.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 #[serde(rename_all = "snake_case")]
 pub enum Start {
@@ -20,6 +26,48 @@ pub enum Start {
     Kick(f64),
     /// At a0 with dR/dtau = V0, sigma from the angular junction condition with that velocity.
     Velocity(f64),
+    /// At R with dR/dtau = V (the sign is the direction), sigma from the angular junction condition
+    /// sigma = -(D-2)[X]/(8 pi R), X_i = nu_i sqrt(V^2 + B_i).
+    Moving(f64),
+    /// At R with surface energy density sigma; |dR/dtau| = sqrt(-V(R, sigma)) from the energy constraint, moving
+    /// outward or inward (`None` only at a turning point, V(R, sigma) = 0).
+    Sigma {
+        /// sigma at the start.
+        sigma: f64,
+        /// Direction of motion.
+        outward: Option<bool>,
+    },
+}
+
+impl Start {
+    /// True for the starts about a static radius (kick, velocity at a0).
+    pub fn is_static(&self) -> bool {
+        matches!(self, Start::Kick(_) | Start::Velocity(_))
+    }
+}
+
+/// |V(R, sigma)| below this, relative to 1 + |B_minus| + |B_plus|, counts as a turning point for a `Start::Sigma`.
+pub const TURNING_TOL: f64 = 1e-12;
+
+/// One side along the motion: its horizons and where the shell was at the start and at the end.
+#[derive(Debug, Clone, Serialize)]
+pub struct SideMotion {
+    /// "minus" or "plus".
+    pub side: &'static str,
+    /// Horizons watched (radius, degenerate), on [1e-4 R0, 1e4 R0].
+    pub horizons: Vec<(f64, bool)>,
+    /// Region of the shell's position at the start (None exactly on a horizon).
+    pub region_start: Option<RegionKind>,
+    /// Region at the end.
+    pub region_end: Option<RegionKind>,
+    /// Sign of n^r at the start.
+    pub normal_sign_start: f64,
+    /// Sign of n^r at the end.
+    pub normal_sign_end: f64,
+    /// Number of horizon crossings on this side.
+    pub horizon_crossings: usize,
+    /// Number of flips of the normal on this side.
+    pub normal_flips: usize,
 }
 
 /// Relative residual |p0 - P(sigma0)| / (|p0| + |sigma0|) below which a radius counts as static.
@@ -50,12 +98,13 @@ pub struct EvolveReport {
     pub equation_of_state: String,
     /// The radius given on the command line.
     pub radius_requested: f64,
-    /// The static radius a0 used (equal to the request, or the static radius within 1e-3 of it).
-    pub static_radius: f64,
+    /// The static radius a0 used (equal to the request, or the static radius within 1e-3 of it); None for a
+    /// start from arbitrary initial data.
+    pub static_radius: Option<f64>,
     /// sigma0 at a0.
-    pub static_sigma: f64,
+    pub static_sigma: Option<f64>,
     /// |p0 - P(sigma0)| at a0.
-    pub static_residual: f64,
+    pub static_residual: Option<f64>,
     /// How the shell was set moving.
     pub start: Start,
     /// The starting state.
@@ -74,13 +123,19 @@ pub struct EvolveReport {
     pub turning_points_count: usize,
     /// Turning points (tau, R).
     pub turning_points: Vec<super::integrate::TurningPoint>,
+    /// Events in order: horizon crossings, turning points, normal flips, the centre, the stop.
+    pub events: Vec<Event>,
+    /// Each side along the motion.
+    pub sides: [SideMotion; 2],
     /// Smallest and largest R.
     pub radius_range: [f64; 2],
     /// V''(a0) with the scenario's law (`potential_taylor`).
-    pub potential_second_derivative: f64,
-    /// 2 pi / sqrt(V''(a0)/2) when V''(a0) > 0.
+    pub potential_second_derivative: Option<f64>,
+    /// "stable", "unstable" or "marginal" (|V''| below a relative 1e-8, `stability::marginal_scale`).
+    pub linear_verdict: Option<&'static str>,
+    /// 2 pi / sqrt(V''(a0)/2) when V''(a0) > 0 (not marginal).
     pub linear_period: Option<f64>,
-    /// 1 / sqrt(-V''(a0)/2), the e-folding time of small departures, when V''(a0) < 0.
+    /// 1 / sqrt(-V''(a0)/2), the e-folding time of small departures, when V''(a0) < 0 (not marginal).
     pub linear_growth_time: Option<f64>,
     /// The measured period.
     pub measured_period: Option<Period>,
@@ -106,18 +161,7 @@ pub struct EvolveReport {
 /// Check that the scenario can be evolved (timelike shell with a law) and that `radius` is a static radius of
 /// its law; a radius within a relative 1e-3 of exactly one static radius is moved there (with a note).
 pub fn static_start(s: &Scenario, radius: f64, notes: &mut Vec<String>) -> Result<f64> {
-    if s.shell.kind != ShellKind::Timelike {
-        return Err(Error::input(format!(
-            "{}: evolve needs a timelike shell (this one is {})",
-            s.origin.label(),
-            s.shell.kind.name()
-        ))
-        .with_hint("a spacelike shell is a transition surface, not a moving membrane"));
-    }
-    if s.shell.eos.is_none() {
-        return Err(Error::input(format!("{}: the scenario has no equation of state", s.origin.label()))
-            .with_hint("add [shell] pressure = \"...\" (e.g. \"w*sigma\"): the motion needs p(sigma)"));
-    }
+    check_evolvable(s)?;
     if !(radius.is_finite() && radius > 0.0) {
         return Err(Error::input(format!("--radius {radius}: the areal radius must be a positive number")));
     }
@@ -154,13 +198,10 @@ pub fn static_start(s: &Scenario, radius: f64, notes: &mut Vec<String>) -> Resul
 
 /// The starting state for `start` about the static radius `a0`.
 pub fn initial_state(j: &Junction<f64>, a0: f64, start: Start) -> Result<Initial> {
-    let (r, v) = match start {
-        Start::Kick(da) => (a0 + da, 0.0),
-        Start::Velocity(v) => (a0, v),
-    };
-    let what = match start {
-        Start::Kick(da) => format!("--kick {da}"),
-        Start::Velocity(v) => format!("--velocity {v}"),
+    let (r, v, what) = match start {
+        Start::Kick(da) => (a0 + da, 0.0, format!("--kick {da}")),
+        Start::Velocity(v) => (a0, v, format!("--velocity {v}")),
+        Start::Moving(_) | Start::Sigma { .. } => return unreachable_start(),
     };
     if !(r.is_finite() && v.is_finite() && r > 0.0) {
         return Err(Error::input(format!("{what}: the starting radius {r} must be a positive number"))
@@ -175,13 +216,13 @@ pub fn initial_state(j: &Junction<f64>, a0: f64, start: Start) -> Result<Initial
     Ok(Initial { radius: r, rdot: v, sigma: st.sigma() })
 }
 
-/// The potential V(R) of the motion that starts at `init`, on the given radii (NaN where undefined): the static
-/// law's own curve from `Junction::potential_curve`, started from the initial state instead of a static one.
+/// The potential V(R) of the motion that starts at `init`, on the given radii (NaN where undefined): V(R, sigma(R))
+/// with sigma(R) following the scenario's law from the initial state (`Junction::potential_curve_from`), through
+/// horizons as the motion goes.
 pub fn orbit_potential(j: &Junction<f64>, init: &Initial, radii: &[f64]) -> Result<Vec<f64>> {
-    let sv = j.static_values(init.radius)?;
-    let stress = j.stress(init.radius, init.rdot, 0.0)?;
-    let sv = StaticValues { stress, ..sv };
-    Ok(j.potential_curve(&sv, Law::Scenario, radii))
+    let y0 = -j.kappa(init.radius, init.sigma);
+    let p0 = j.eos_at(init.sigma, |t| t).unwrap_or(f64::NAN);
+    Ok(j.potential_curve_from((init.radius, y0, init.sigma, p0), Law::Scenario, radii, true))
 }
 
 /// Integrate one start and summarise it.
@@ -223,8 +264,180 @@ pub fn ensemble(j: &Junction<f64>, a0: f64, n: usize, spread: f64, duration: f64
     Ensemble { members_count: n, spread, bound, bounded, bounded_fraction: bounded as f64 / n as f64, members }
 }
 
-/// Evolve a shell of scenario `s` set moving from its static radius `radius` by `start`, for proper time
-/// `duration`; with `ens = Some((N, S))` also the ensemble of N kicks in [-S, S].
+/// Check that the scenario can be evolved at all: a timelike shell with an equation of state.
+fn check_evolvable(s: &Scenario) -> Result<()> {
+    if s.shell.kind != ShellKind::Timelike {
+        return Err(Error::input(format!(
+            "{}: evolve needs a timelike shell (this one is {})",
+            s.origin.label(),
+            s.shell.kind.name()
+        ))
+        .with_hint("a spacelike shell is a transition surface, not a moving membrane"));
+    }
+    if s.shell.eos.is_none() {
+        return Err(Error::input(format!("{}: the scenario has no equation of state", s.origin.label()))
+            .with_hint("add [shell] pressure = \"...\" (e.g. \"w*sigma\"): the motion needs p(sigma)"));
+    }
+    Ok(())
+}
+
+/// The starting state from arbitrary initial data at radius `r` (`Start::Moving` or `Start::Sigma`), completed
+/// by the energy constraint Rdot^2 + V(R, sigma) = 0 (V from `potential_from_y`, Poisson 2004 ch. 3):
+/// - `Moving(V)`: sigma = -(D-2)[X]/(8 pi R) with X_i = nu_i sqrt(V^2 + B_i); needs V^2 + B_i > 0 on both sides,
+///   and on a side in a T-region an explicit `normal_sign` (there `keep` does not fix the sign of n^r);
+/// - `Sigma { sigma, outward }`: Rdot^2 = -V(R, sigma), which must be >= 0; the normals X_i then follow from the
+///   junction condition (X_plus = (Y + [B]/Y)/2, X_minus = ([B]/Y - Y)/2, Y = -8 pi R sigma/(D-2)) and must agree
+///   with the sign that `keep` (or `normal_sign`) gives on each side in an R-region.
+///
+/// Errors (input, exit 2) name the option and value and say why no shell state exists there.
+pub fn initial_from_data(s: &Scenario, j: &Junction<f64>, r: f64, start: Start) -> Result<Initial> {
+    check_evolvable(s)?;
+    if !(r.is_finite() && r > 0.0) {
+        return Err(Error::input(format!("--radius {r}: the areal radius must be a positive number"))
+            .with_hint("e.g. --radius 10"));
+    }
+    let jets = [j.jet(Which::Minus, r), j.jet(Which::Plus, r)];
+    for (w, jet) in [Which::Minus, Which::Plus].into_iter().zip(&jets) {
+        j.check_finite_jet(w, r, jet, 1).map_err(|e| e.context(format!("--radius {r}")))?;
+        if jet.b[0].abs() <= crate::junction::HORIZON_TOL * (1.0 + r * jet.b[1].abs()) {
+            return Err(Error::input(format!(
+                "--radius {r} is on (or numerically within {:.0e} of) a horizon of the {w} side: B = {:e}",
+                crate::junction::HORIZON_TOL,
+                jet.b[0]
+            ))
+            .with_hint("start slightly off the horizon; the motion itself crosses horizons"));
+        }
+        if jet.a[0] * jet.b[0] < 0.0 {
+            return Err(Error::input(format!(
+                "--radius {r}: on the {w} side A = {:.6e} and B = {:.6e} have opposite signs",
+                jet.a[0], jet.b[0]
+            ))
+            .with_hint("check A and B: their zeros should coincide"));
+        }
+    }
+    let side = |w: Which| s.side(w);
+    let (rdot, sigma, what) = match start {
+        Start::Moving(v) => {
+            let what = format!("--velocity {v}");
+            if !v.is_finite() {
+                return Err(Error::input(format!("{what}: the velocity must be a finite number")));
+            }
+            for (w, jet) in [Which::Minus, Which::Plus].into_iter().zip(&jets) {
+                let w2 = v * v + jet.b[0];
+                if w2 <= 0.0 {
+                    return Err(Error::input(format!(
+                        "{what} at --radius {r}: Rdot^2 + B = {w2:.6e} <= 0 on the {w} side (a T-region, B = {:.6e}): no timelike shell state exists there",
+                        jet.b[0]
+                    ))
+                    .with_hint(format!("inside a horizon a timelike shell must move with |dR/dtau| > sqrt(-B) = {:.6}", (-jet.b[0]).sqrt())));
+                }
+                if jet.b[0] < 0.0 && side(w).explicit_normal_sign.is_none() {
+                    return Err(Error::input(format!(
+                        "{what} at --radius {r}: the {w} side is a T-region there (B = {:.6e}), where keep does not fix the sign of n^r",
+                        jet.b[0]
+                    ))
+                    .with_hint(format!("give --sigma S instead (the junction condition then fixes the normals), or set normal_sign = +1 or -1 on [{w}]")));
+                }
+            }
+            let st = j.stress_with_jets(&jets[0], &jets[1], r, v, 0.0).map_err(|e| e.context(what.clone()))?;
+            (v, st.sigma(), what)
+        }
+        Start::Sigma { sigma, outward } => {
+            let what = format!("--sigma {sigma}");
+            if !(sigma.is_finite() && sigma != 0.0) {
+                return Err(Error::input(format!(
+                    "{what}: the surface energy density must be a finite, non-zero number"
+                ))
+                .with_hint("sigma = 0 leaves the junction condition without a solution unless both sides agree"));
+            }
+            let v = j.potential_sigma(r, sigma);
+            let scale = 1.0 + jets[0].b[0].abs() + jets[1].b[0].abs();
+            if v > TURNING_TOL * scale {
+                return Err(Error::input(format!(
+                    "{what} at --radius {r}: V(R, sigma) = {v:.6e} > 0, so Rdot^2 = -V < 0: no shell state exists there (the energy constraint Rdot^2 + V = 0 cannot hold)"
+                ))
+                .with_hint("choose a radius inside the allowed region of this sigma, or give --velocity instead (sigma then follows from the junction condition)"));
+            }
+            let speed = if v.abs() <= TURNING_TOL * scale { 0.0 } else { (-v).sqrt() };
+            let rdot = match (speed > 0.0, outward) {
+                (false, _) => 0.0,
+                (true, Some(true)) => speed,
+                (true, Some(false)) => -speed,
+                (true, None) => return Err(Error::input(format!(
+                    "{what} at --radius {r}: the energy constraint gives |dR/dtau| = {speed:.6}, but not the direction"
+                ))
+                .with_hint("add --direction inward or --direction outward")),
+            };
+            (rdot, sigma, what)
+        }
+        _ => unreachable_start()?,
+    };
+    // The normals the junction condition gives must agree with the sides' orientation where it is fixed.
+    let motion = Motion::new(j, sigma);
+    let n = motion.normals(r, sigma);
+    for (i, w) in [Which::Minus, Which::Plus].into_iter().enumerate() {
+        let fixed = jets[i].b[0] > 0.0 || side(w).explicit_normal_sign.is_some();
+        let nu = side(w).normal_sign();
+        if fixed && n.n_r[i] * nu < 0.0 {
+            let why = match side(w).explicit_normal_sign {
+                Some(_) => format!("normal_sign = {nu:+}"),
+                None => format!("keep = \"{}\" needs n^r {} 0", side(w).keep.name(), if nu > 0.0 { ">" } else { "<" }),
+            };
+            return Err(Error::input(format!(
+                "{what} at --radius {r}: the junction condition puts n^r = {:.6e} on the {w} side, but {why}: this state belongs to the other branch of the junction condition",
+                n.n_r[i]
+            ))
+            .with_hint("change the sign of sigma, or the side's keep/normal_sign; with --velocity the branch is chosen from keep"));
+        }
+    }
+    if !j.eos_at(sigma, |t| t).is_some_and(f64::is_finite) {
+        return Err(Error::input(format!(
+            "{what} at --radius {r}: the equation of state is undefined at the starting sigma = {sigma:.6e}"
+        ))
+        .with_hint("the law p(sigma) must be finite at the start"));
+    }
+    Ok(Initial { radius: r, rdot, sigma })
+}
+
+fn unreachable_start<T>() -> Result<T> {
+    Err(Error::input("a static-radius start (--kick, --from-static) needs a static radius")
+        .with_hint("use --kick DA or --from-static"))
+}
+
+fn region_of(b: f64) -> Option<RegionKind> {
+    if b > 0.0 {
+        Some(RegionKind::R)
+    } else if b < 0.0 {
+        Some(RegionKind::T)
+    } else {
+        None
+    }
+}
+
+fn side_motions(motion: &Motion, tr: &Trajectory) -> [SideMotion; 2] {
+    let (n0, n1) = (motion.normals(tr.first.radius, tr.first.sigma), motion.normals(tr.last.radius, tr.last.sigma));
+    [Which::Minus, Which::Plus].map(|w| {
+        let i = usize::from(w == Which::Plus);
+        let mine = |k: super::integrate::EventKind| {
+            tr.events.iter().filter(|e| e.kind == k && e.side == Some(w.name())).count()
+        };
+        SideMotion {
+            side: w.name(),
+            horizons: tr.horizons[i].clone(),
+            region_start: region_of(n0.b[i]),
+            region_end: region_of(n1.b[i]),
+            normal_sign_start: n0.n_r[i].signum(),
+            normal_sign_end: n1.n_r[i].signum(),
+            horizon_crossings: mine(super::integrate::EventKind::HorizonCrossing),
+            normal_flips: mine(super::integrate::EventKind::NormalFlip),
+        }
+    })
+}
+
+/// Evolve a shell of scenario `s` for proper time `duration`. With `Start::Kick` / `Start::Velocity`, `radius`
+/// is a static radius a0 of the law (see [`static_start`]) and the run is compared with the linearised theory;
+/// with `Start::Moving` / `Start::Sigma` it starts at `radius` from those initial data ([`initial_from_data`]).
+/// With `ens = Some((N, S))` (static-radius starts only) also the ensemble of N kicks in [-S, S].
 pub fn evolve(
     s: &Scenario,
     radius: f64,
@@ -239,6 +452,10 @@ pub fn evolve(
             .with_hint("e.g. --duration 200"));
     }
     if let Some((n, spread)) = ens {
+        if !start.is_static() {
+            return Err(Error::input("--ensemble: an ensemble of kicks needs a static-radius start")
+                .with_hint("use --kick DA (or --from-static) with --ensemble"));
+        }
         if !(2..=100_000).contains(&n) {
             return Err(Error::input(format!("--ensemble {n}: give between 2 and 100000 members"))
                 .with_hint("e.g. --ensemble 64 --spread 0.2"));
@@ -248,47 +465,101 @@ pub fn evolve(
                 .with_hint("e.g. --spread 0.2"));
         }
     }
-    let a0 = static_start(s, radius, &mut notes)?;
     let j = Junction::new(s);
-    let sv = j.static_values(a0)?;
-    let (res, _) =
-        residual(&j, a0).ok_or_else(|| Error::numerical(format!("the law is undefined at the static radius {a0}")))?;
-    let v2 = j.potential_taylor(&sv, Law::Scenario).map(|v| v[2]).unwrap_or(f64::NAN);
-    let init = initial_state(&j, a0, start)?;
-    let tr = run_one(&j, a0, &init, duration, opts);
-    let linear_period = (v2 > 0.0).then(|| 2.0 * std::f64::consts::PI / (v2 / 2.0).sqrt());
-    let linear_growth_time = (v2 < 0.0).then(|| 1.0 / (-v2 / 2.0).sqrt());
+    struct StaticPart {
+        a0: f64,
+        sigma: f64,
+        residual: f64,
+        v2: f64,
+        marginal: bool,
+    }
+    let (stat, init) = if start.is_static() {
+        let a0 = static_start(s, radius, &mut notes)?;
+        let sv = j.static_values(a0)?;
+        let (res, _) = residual(&j, a0)
+            .ok_or_else(|| Error::numerical(format!("the law is undefined at the static radius {a0}")))?;
+        let v2 = j.potential_taylor(&sv, Law::Scenario).map(|v| v[2]).unwrap_or(f64::NAN);
+        let beta2 = j.eos_at(num_dual::Dual64::new(sv.stress.sigma(), 1.0), num_dual::Dual64::from).map(|d| d.eps);
+        let scale = match (j.linear_stability(&sv), beta2) {
+            (Ok(ls), Some(b)) => marginal_scale(&ls, b, a0),
+            _ => 1.0 / (a0 * a0),
+        };
+        let marginal = v2.abs() <= MARGINAL_TOL * scale;
+        let init = initial_state(&j, a0, start)?;
+        (Some(StaticPart { a0, sigma: sv.stress.sigma(), residual: res.abs(), v2, marginal }), init)
+    } else {
+        (None, initial_from_data(s, &j, radius, start)?)
+    };
+    let a_ref = stat.as_ref().map_or(init.radius, |st| st.a0);
+    let motion = Motion::new(&j, init.sigma);
+    let tr = integrate(&motion, [init.radius, init.rdot, init.sigma], a_ref, duration, opts);
+    let decided = |st: &StaticPart| !st.marginal && st.v2.is_finite();
+    let linear_period = stat
+        .as_ref()
+        .filter(|st| decided(st) && st.v2 > 0.0)
+        .map(|st| 2.0 * std::f64::consts::PI / (st.v2 / 2.0).sqrt());
+    let linear_growth_time =
+        stat.as_ref().filter(|st| decided(st) && st.v2 < 0.0).map(|st| 1.0 / (-st.v2 / 2.0).sqrt());
+    let linear_verdict = stat.as_ref().map(|st| match () {
+        _ if !decided(st) => "marginal",
+        _ if st.v2 > 0.0 => "stable",
+        _ => "unstable",
+    });
+    if stat.as_ref().is_some_and(|st| st.marginal) {
+        notes.push("V''(a0) vanishes to within a relative 1e-8: the linear test does not decide (marginal), so no linear period or growth time is given".into());
+    }
     let measured = period(&tr);
     let period_ratio = match (measured, linear_period) {
         (Some(m), Some(l)) => Some(m.value / l),
         _ => None,
     };
-    let ensemble = ens.map(|(n, spread)| ensemble(&j, a0, n, spread, duration, opts));
+    let ensemble = match (&stat, ens) {
+        (Some(st), Some((n, spread))) => Some(ensemble(&j, st.a0, n, spread, duration, opts)),
+        _ => None,
+    };
     if tr.max_constraint > 1e3 * opts.tol.rtol.max(opts.tol.atol) {
         notes.push(format!(
             "the energy constraint drifted to {:.2e}: tighten the tolerances or shorten the run",
             tr.max_constraint
         ));
     }
+    let sides = side_motions(&motion, &tr);
+    for sd in &sides {
+        if sd.horizon_crossings > 0 && sd.region_end == Some(RegionKind::T) {
+            notes.push(format!(
+                "the run ends inside a horizon of the {} side (a T-region): there r is a time coordinate and the shell cannot stop",
+                sd.side
+            ));
+        }
+        if sd.normal_flips > 0 {
+            notes.push(format!(
+                "n^r changed sign on the {} side ({} time(s), inside a T-region): should the shell re-enter an R-region of that side, it does so in the other asymptotic region (across the Einstein-Rosen bridge), where its 'keep' is reversed",
+                sd.side, sd.normal_flips
+            ));
+        }
+    }
     Ok(EvolveReport {
         scenario: s.name.clone(),
         provenance: s.provenance(),
         equation_of_state: s.shell.eos.as_ref().map(|e| e.source().to_string()).unwrap_or_default(),
         radius_requested: radius,
-        static_radius: a0,
-        static_sigma: sv.stress.sigma(),
-        static_residual: res.abs(),
+        static_radius: stat.as_ref().map(|st| st.a0),
+        static_sigma: stat.as_ref().map(|st| st.sigma),
+        static_residual: stat.as_ref().map(|st| st.residual),
         start,
         initial: init,
         duration,
         tau_end: tr.last.tau,
         stop: tr.stop.name().into(),
         stop_detail: tr.stop_detail.clone(),
-        fate: fate(&tr, a0),
+        fate: fate(&tr, a_ref),
         turning_points_count: tr.turning_points.len(),
         turning_points: tr.turning_points.clone(),
+        events: tr.events.clone(),
+        sides,
         radius_range: [tr.r_range.0, tr.r_range.1],
-        potential_second_derivative: v2,
+        potential_second_derivative: stat.as_ref().map(|st| st.v2),
+        linear_verdict,
         linear_period,
         linear_growth_time,
         measured_period: measured,

@@ -2,12 +2,17 @@
 
 use super::num;
 use crate::dynamics::{EvolveReport, Start};
+use crate::metric::RegionKind;
 
 fn start_text(r: &EvolveReport) -> String {
     let i = &r.initial;
     let how = match r.start {
         Start::Kick(da) => format!("kick DA = {} (at rest at a0 + DA)", num(da)),
         Start::Velocity(v) => format!("velocity V0 = {} at a0", num(v)),
+        Start::Moving(v) => format!("at R with dR/dτ = {} (sigma from the junction condition)", num(v)),
+        Start::Sigma { sigma, .. } => {
+            format!("at R with sigma = {} (|dR/dτ| from the energy constraint)", num(sigma))
+        }
     };
     format!("{how}: R = {}, dR/dτ = {}, sigma = {}", num(i.radius), num(i.rdot), num(i.sigma))
 }
@@ -20,19 +25,19 @@ fn opt(x: Option<f64>) -> String {
 pub fn evolve_text(r: &EvolveReport) -> String {
     let mut o =
         format!("scenario: {}\n# {}\nequation of state: p = {}\n", r.scenario, r.provenance, r.equation_of_state);
-    let verdict = if r.potential_second_derivative > 0.0 {
-        "linearly stable"
-    } else if r.potential_second_derivative < 0.0 {
-        "linearly unstable"
-    } else {
-        "undecided"
-    };
-    o.push_str(&format!(
-        "static radius a0 = {}  sigma0 = {}  V''(a0) = {} ({verdict})\n",
-        num(r.static_radius),
-        num(r.static_sigma),
-        num(r.potential_second_derivative)
-    ));
+    if let (Some(a0), Some(s0), Some(v2)) = (r.static_radius, r.static_sigma, r.potential_second_derivative) {
+        let verdict = match r.linear_verdict {
+            Some("stable") => "linearly stable",
+            Some("unstable") => "linearly unstable",
+            _ => "marginal: the linear test does not decide",
+        };
+        o.push_str(&format!(
+            "static radius a0 = {}  sigma0 = {}  V''(a0) = {} ({verdict})\n",
+            num(a0),
+            num(s0),
+            num(v2)
+        ));
+    }
     o.push_str(&format!("start: {}\n", start_text(r)));
     o.push_str(&format!(
         "integrated to τ = {} of {}: stop = {}\n  {}\n",
@@ -42,6 +47,25 @@ pub fn evolve_text(r: &EvolveReport) -> String {
         r.stop_detail
     ));
     o.push_str(&format!("fate: {}\n", r.fate.name()));
+    for sd in &r.sides {
+        let hs: Vec<String> =
+            sd.horizons.iter().map(|(x, d)| if *d { format!("{} (double)", num(*x)) } else { num(*x) }).collect();
+        o.push_str(&format!(
+            "{} side: horizons {}; start {} n^r {}, end {} n^r {}; {} horizon crossing(s), {} normal flip(s)\n",
+            sd.side,
+            if hs.is_empty() { "none".to_string() } else { hs.join(", ") },
+            region_name(sd.region_start),
+            sign_name(sd.normal_sign_start),
+            region_name(sd.region_end),
+            sign_name(sd.normal_sign_end),
+            sd.horizon_crossings,
+            sd.normal_flips
+        ));
+    }
+    o.push_str("events:\n");
+    for e in &r.events {
+        o.push_str(&format!("  τ = {:<14} R = {:<14} {:<16} {}\n", num(e.tau), num(e.radius), e.kind.name(), e.detail));
+    }
     o.push_str(&format!(
         "turning points: {}   R range: {} .. {}\n",
         r.turning_points_count,
@@ -93,29 +117,60 @@ pub fn evolve_text(r: &EvolveReport) -> String {
     o
 }
 
+fn region_name(k: Option<RegionKind>) -> &'static str {
+    match k {
+        Some(RegionKind::R) => "R-region",
+        Some(RegionKind::T) => "T-region",
+        None => "on a horizon",
+    }
+}
+
+fn sign_name(x: f64) -> &'static str {
+    if x > 0.0 {
+        "> 0"
+    } else if x < 0.0 {
+        "< 0"
+    } else {
+        "= 0"
+    }
+}
+
 /// The time series as CSV: provenance comment lines, a header with units (lengths in the scenario's length
-/// unit M, G = c = 1), one row per accepted step.
+/// unit M, G = c = 1), one row per accepted step. The events come first, one comment line each
+/// (`# event: kind, tau, R, side, detail`); the last two columns are n^r on the minus and plus side.
 pub fn evolve_csv(r: &EvolveReport) -> String {
     let mut o = format!("# {}\n", r.provenance);
     o.push_str(&format!(
         "# evolve: p = {}; a0 = {}; {}; stop = {}; rtol = {:e}, atol = {:e}\n",
         r.equation_of_state,
-        num(r.static_radius),
+        r.static_radius.map(num).unwrap_or_else(|| "none".into()),
         start_text(r),
         r.stop,
         r.tolerances[0],
         r.tolerances[1]
     ));
-    o.push_str("tau [M],R [M],dR/dtau [1],sigma [1/M],p [1/M],Rdot^2+V [1]\n");
+    for e in &r.events {
+        o.push_str(&format!(
+            "# event: {}, {}, {}, {}, {}\n",
+            e.kind.name(),
+            num(e.tau),
+            num(e.radius),
+            e.side.unwrap_or(""),
+            e.detail.replace(',', ";")
+        ));
+    }
+    o.push_str("tau [M],R [M],dR/dtau [1],sigma [1/M],p [1/M],Rdot^2+V [1],n^r_minus [1],n^r_plus [1]\n");
     for s in &r.samples {
         o.push_str(&format!(
-            "{},{},{},{},{},{}\n",
+            "{},{},{},{},{},{},{},{}\n",
             num(s.tau),
             num(s.radius),
             num(s.rdot),
             num(s.sigma),
             num(s.pressure),
-            num(s.constraint)
+            num(s.constraint),
+            num(s.n_r[0]),
+            num(s.n_r[1])
         ));
     }
     o

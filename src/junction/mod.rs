@@ -41,6 +41,15 @@ pub struct Jet<T> {
     pub b: [T; 4],
 }
 
+/// Phi' = A'/(2A) - B'/(2B) of one side, the redshift gradient in the flux term of the conservation law
+/// (physics notes); exactly zero when the jets of A and B coincide (A = B), so that it stays finite on a horizon.
+pub fn phi_prime(jet: &Jet<f64>) -> f64 {
+    if jet.a[0] == jet.b[0] && jet.a[1] == jet.b[1] {
+        return 0.0;
+    }
+    jet.a[1] / (2.0 * jet.a[0]) - jet.b[1] / (2.0 * jet.b[0])
+}
+
 /// Relative size of |B| below which a radius counts as numerically at a horizon.
 pub const HORIZON_TOL: f64 = 1e-9;
 
@@ -75,6 +84,15 @@ impl<'a> Junction<'a, f64> {
     /// The junction of a scenario at its current parameter values.
     pub fn new(s: &'a Scenario) -> Junction<'a, f64> {
         Junction::with_params(s, s.params.values().to_vec())
+    }
+
+    /// One side's A and B bound to this junction's parameter values (for horizon finding in `metric`).
+    pub fn side_fns(&self, which: Which) -> crate::metric::SideFns<'_> {
+        let (a, b) = match which {
+            Which::Minus => (self.minus_a, self.minus_b),
+            Which::Plus => (self.plus_a, self.plus_b),
+        };
+        crate::metric::SideFns { a, b, params: &self.params }
     }
 }
 

@@ -119,20 +119,34 @@ impl<'a> Junction<'a, f64> {
     /// requested radii), then V = V(R, Y(R)). Points where the state leaves the domain (a side's B <= 0, the
     /// law undefined) are NaN.
     pub fn potential_curve(&self, sv: &StaticValues<f64>, law: Law<f64>, radii: &[f64]) -> Vec<f64> {
-        use crate::scenario::Which;
-        let a0 = sv.a;
         let y0 = sv.stress.n_r[1] - sv.stress.n_r[0];
-        let sigma0 = sv.stress.sigma();
-        let p0 = sv.stress.pressure();
+        let start = (sv.a, y0, sv.stress.sigma(), sv.stress.pressure());
+        self.potential_curve_from(start, law, radii, false)
+    }
+
+    /// V(R) on the given radii along sigma(R) of the law, started from any state (a0, Y0, sigma0, p0) with
+    /// Y0 = R [K^theta_theta] = -8 pi a0 sigma0/(D-2) (the method of [`Junction::potential_curve`]). With
+    /// `through_horizons` the curve continues into T-regions (the normals X_i are algebraic in Y there and
+    /// nothing divides by B, `dynamics::Motion`); otherwise it stops where a side's B <= 0.
+    pub fn potential_curve_from(
+        &self,
+        start: (f64, f64, f64, f64),
+        law: Law<f64>,
+        radii: &[f64],
+        through_horizons: bool,
+    ) -> Vec<f64> {
+        use crate::scenario::Which;
+        let (a0, y0, sigma0, p0) = start;
         let n_ang = self.n_ang();
         let pi8 = 8.0 * std::f64::consts::PI;
         let rhs = |r: f64, y: f64| -> Option<f64> {
             let jm = self.jet(Which::Minus, r);
             let jp = self.jet(Which::Plus, r);
-            if jm.b[0] <= 0.0 || jp.b[0] <= 0.0 {
+            let outside = |j: &super::Jet<f64>| if through_horizons { j.a[0] * j.b[0] < 0.0 } else { j.b[0] <= 0.0 };
+            if outside(&jm) || outside(&jp) {
                 return None;
             }
-            let phi = |j: &super::Jet<f64>| j.a[1] / (2.0 * j.a[0]) - j.b[1] / (2.0 * j.b[0]);
+            let phi = super::phi_prime;
             let sigma = -y * n_ang / (r * pi8);
             let p = match law {
                 Law::Linear { beta2 } => p0 + beta2 * (sigma - sigma0),

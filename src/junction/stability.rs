@@ -49,6 +49,18 @@ pub struct LinearStability {
     pub stable_when: StableWhen,
 }
 
+/// Relative |V''(a0)| below which the linear test does not decide (marginal): the one marginal rule of statics,
+/// tuning and evolve (`scan` applies the same number to its cells).
+pub const MARGINAL_TOL: f64 = 1e-8;
+
+/// The scale that |V''(a0)| is compared with for the marginal rule: |c0| + |c1 beta^2| (the two terms of
+/// V'' = c0 + c1 beta^2, Poisson & Visser 1995) plus 1/a0^2, the natural size of V'' for a potential of order one
+/// varying on the scale a0 (common practice). Without the last term a law whose static condition holds
+/// identically (V'' = 0 exactly, c0 and c1 beta^2 round-off) would be called stable or unstable at random.
+pub fn marginal_scale(ls: &LinearStability, beta2: f64, a0: f64) -> f64 {
+    ls.v2_at_beta2_zero.abs() + (ls.v2_slope * beta2).abs() + 1.0 / (a0 * a0)
+}
+
 /// Relative size of c1 below which V'' is taken as independent of beta^2.
 pub const SLOPE_TOL: f64 = 1e-12;
 

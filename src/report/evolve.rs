@@ -1,19 +1,29 @@
 //! Figures of a shell's motion: R(tau), and the orbit in the (R, dR/dtau) plane over the potential.
 //! Pure: a report (and the junction, for the potential curve) in, `plot::Figure` out.
 
+use crate::dynamics::integrate::EventKind;
 use crate::dynamics::run::orbit_potential;
 use crate::dynamics::EvolveReport;
 use crate::junction::Junction;
 use crate::plot::{Figure, LineStyle, Marker, RefLine, Series};
 
-/// R(tau) with the static radius a0 as a reference line and the turning points marked.
+/// R(tau) with the static radius a0 (if any) and the horizons the shell crossed as reference lines.
 pub fn radius_figure(r: &EvolveReport) -> Figure {
     let pts: Vec<(f64, f64)> = r.samples.iter().map(|s| (s.tau, s.radius)).collect();
+    let mut ref_lines: Vec<RefLine> = r.static_radius.map(|a0| RefLine::horizontal(a0, "a₀")).into_iter().collect();
+    let mut crossed: Vec<f64> = vec![];
+    for e in r.events.iter().filter(|e| e.kind == EventKind::HorizonCrossing) {
+        if !crossed.iter().any(|c| (c - e.radius).abs() <= 1e-9 * e.radius) {
+            crossed.push(e.radius);
+            let label = if e.side == Some("minus") { "r_h−" } else { "r_h+" };
+            ref_lines.push(RefLine::horizontal(e.radius, label));
+        }
+    }
     Figure {
         x_label: "τ/M".into(),
         y_label: "R/M".into(),
         series: vec![Series { label: "R(τ)".into(), points: pts, style: LineStyle::Solid, colour: 0 }],
-        ref_lines: vec![RefLine::horizontal(r.static_radius, "a₀")],
+        ref_lines,
         provenance: r.provenance.clone(),
         ..Figure::default()
     }
@@ -21,11 +31,12 @@ pub fn radius_figure(r: &EvolveReport) -> Figure {
 
 /// The orbit (R, dR/dtau) drawn over the curves dR/dtau = ±sqrt(-V(R)) of the potential of this motion (the
 /// scenario's law followed from the starting state; `Junction::potential_curve`). On an exact solution the
-/// orbit lies on these curves. The static radius a0 is marked on the axis.
+/// orbit lies on these curves. The static radius a0 (if any) is marked on the axis.
 pub fn phase_figure(j: &Junction<f64>, r: &EvolveReport) -> Figure {
     let orbit: Vec<(f64, f64)> = r.samples.iter().map(|s| (s.radius, s.rdot)).collect();
     let (lo, hi) = (r.radius_range[0], r.radius_range[1]);
-    let pad = 0.15 * (hi - lo).max(1e-6 * r.static_radius);
+    let a_ref = r.static_radius.unwrap_or(r.initial.radius);
+    let pad = 0.15 * (hi - lo).max(1e-6 * a_ref);
     let n = 400;
     let radii: Vec<f64> =
         (0..n).map(|i| (lo - pad) + (hi - lo + 2.0 * pad) * i as f64 / (n - 1) as f64).filter(|x| *x > 0.0).collect();
@@ -41,13 +52,17 @@ pub fn phase_figure(j: &Junction<f64>, r: &EvolveReport) -> Figure {
             Series { label: String::new(), points: root(-1.0), style: LineStyle::Dashed, colour: 1 },
             Series { label: "orbit".into(), points: orbit, style: LineStyle::Solid, colour: 0 },
         ],
-        markers: vec![Marker {
-            x: r.static_radius,
-            y: 0.0,
-            label: "a₀".into(),
-            filled: r.potential_second_derivative > 0.0,
-            colour: 2,
-        }],
+        markers: r
+            .static_radius
+            .map(|a0| Marker {
+                x: a0,
+                y: 0.0,
+                label: "a₀".into(),
+                filled: r.linear_verdict == Some("stable"),
+                colour: 2,
+            })
+            .into_iter()
+            .collect(),
         ref_lines: vec![RefLine::horizontal(0.0, "")],
         provenance: r.provenance.clone(),
         ..Figure::default()

@@ -182,7 +182,9 @@ where
             if let Some(g) = fpp {
                 if let Some(x) = refine(g, xs[i], xs[j], opts) {
                     if let Some((fx, dfx)) = f(x) {
-                        if fx != 0.0 && fx.signum() != f0.signum() && fx.is_finite() {
+                        if fx.abs() <= opts.double_root_tol * scale.max(f0.abs().max(f1.abs())) {
+                            out.roots.push(Root { x, kind: RootKind::Double, residual: fx.abs(), slope: dfx });
+                        } else if fx.signum() != f0.signum() && fx.is_finite() {
                             // f dips through zero and back between two samples: two simple roots closer than
                             // the sample spacing (a nearly degenerate pair), one on each side of the extremum.
                             for (a, b) in [(xs[i], x), (x, xs[j])] {
@@ -190,8 +192,6 @@ where
                                     push_root(&mut out, f, r, RootKind::Simple);
                                 }
                             }
-                        } else if fx.abs() <= opts.double_root_tol * scale.max(f0.abs().max(f1.abs())) {
-                            out.roots.push(Root { x, kind: RootKind::Double, residual: fx.abs(), slope: dfx });
                         }
                     }
                 }

@@ -281,7 +281,12 @@ fn evolve_writes_series_summary_and_figures() {
     let mut lines = csv.lines();
     assert!(lines.next().unwrap().starts_with("# junctura "));
     assert!(lines.next().unwrap().starts_with("# evolve: "));
-    assert_eq!(lines.next().unwrap(), "tau [M],R [M],dR/dtau [1],sigma [1/M],p [1/M],Rdot^2+V [1]");
+    // One comment line per event (turning points, the stop), then the header.
+    let mut lines = lines.skip_while(|l| l.starts_with("# event: "));
+    assert_eq!(
+        lines.next().unwrap(),
+        "tau [M],R [M],dR/dtau [1],sigma [1/M],p [1/M],Rdot^2+V [1],n^r_minus [1],n^r_plus [1]"
+    );
     let rows: Vec<Vec<f64>> = lines.map(|l| l.split(',').map(|x| x.parse().unwrap()).collect()).collect();
     assert!(rows.len() > 100);
     // Proper time increases along the series.

@@ -363,10 +363,12 @@ pub fn initial_from_data(s: &Scenario, j: &Junction<f64>, r: f64, start: Start) 
                 (false, _) => 0.0,
                 (true, Some(true)) => speed,
                 (true, Some(false)) => -speed,
-                (true, None) => return Err(Error::input(format!(
+                (true, None) => {
+                    return Err(Error::input(format!(
                     "{what} at --radius {r}: the energy constraint gives |dR/dtau| = {speed:.6}, but not the direction"
                 ))
-                .with_hint("add --direction inward or --direction outward")),
+                    .with_hint("add --direction inward or --direction outward"))
+                }
             };
             (rdot, sigma, what)
         }

@@ -18,7 +18,10 @@ pub fn statics_text(r: &StaticsReport) -> String {
     for iv in &r.intervals {
         o.push_str(&format!("  searched {} .. {} (both sides R-regions)\n", num(iv.from), num(iv.to)));
     }
-    if r.static_radii.is_empty() {
+    for n in &r.neutral_intervals {
+        o.push_str(&format!("every radius in [{}, {}] is static (neutral)\n", num(n.from), num(n.to)));
+    }
+    if r.static_radii.is_empty() && r.neutral_intervals.is_empty() {
         o.push_str("no static radius in the range\n");
     }
     for (i, s) in r.static_radii.iter().enumerate() {
@@ -55,6 +58,9 @@ pub fn statics_text(r: &StaticsReport) -> String {
 /// CSV of static radii (provenance comment, header with units, one row per radius).
 pub fn statics_csv(r: &StaticsReport) -> String {
     let mut o = format!("# {}\n# equation of state: p = {}\n", r.provenance, r.equation_of_state);
+    for n in &r.neutral_intervals {
+        o.push_str(&format!("# every radius in [{}, {}] is static (neutral)\n", num(n.from), num(n.to)));
+    }
     o.push_str("radius [M],sigma [1/M],pressure [1/M],potential_second_derivative [1/M^2],stability,beta2 [1],beta2_critical [1],shell_mass [M],residual [1/M],double_root,near_horizon,null,weak,strong,dominant\n");
     for s in &r.static_radii {
         let ec = &s.energy_conditions;

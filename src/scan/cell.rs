@@ -159,8 +159,9 @@ pub fn energy_bits(ec: EnergyConditions) -> u8 {
     u8::from(ec.null) | u8::from(ec.weak) << 1 | u8::from(ec.strong) << 2 | u8::from(ec.dominant) << 3
 }
 
-/// Relative |V''| below which a cell is marginal.
-pub const MARGINAL_TOL: f64 = 1e-9;
+/// Relative |V''| below which a cell is marginal: the documented marginal rule, 1e-8
+/// (`junction::stability::MARGINAL_TOL`).
+pub const MARGINAL_TOL: f64 = crate::junction::stability::MARGINAL_TOL;
 
 /// Static values at one radius with one parameter set: (sigma0, p0, c0, c1), or the class that says why not.
 pub(crate) fn static_point(j: &Junction<f64>, a: f64) -> std::result::Result<(f64, f64, f64, f64), CellClass> {

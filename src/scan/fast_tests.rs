@@ -35,8 +35,9 @@ fn agree(s: &Scenario, params: &[f64], a: f64, what: &str) -> bool {
     match (generic, fast, batch) {
         (Ok((sg, pg, c0g, c1g)), Ok(f), Ok(b)) => {
             let scale = c0g.abs() + c1g.abs();
+            // Relative to the size of the stress: p may vanish identically (dust in an extremal exterior).
             for (name, x, y) in [("sigma", sg, f.sigma), ("p", pg, f.pressure)] {
-                assert!(close(x, y, 0.0), "{what} a = {a}: {name} generic {x} fast {y}");
+                assert!(close(x, y, 1e-6 * (sg.abs() + pg.abs())), "{what} a = {a}: {name} generic {x} fast {y}");
             }
             for (name, x, y) in [("c0", c0g, f.c0), ("c1", c1g, f.c1), ("c0 batch", c0g, b.c0), ("c1 batch", c1g, b.c1)]
             {

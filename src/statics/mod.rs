@@ -29,6 +29,11 @@ pub struct StaticsOptions {
     pub near_horizon: f64,
     /// Horizons are cut out of the search interval by this relative margin.
     pub horizon_margin: f64,
+    /// |p0 - P(sigma0)| below this, relative to the size of the terms it is made of, counts as zero for the
+    /// test of an identically satisfied static condition.
+    pub identically_static_tol: f64,
+    /// At least this many consecutive samples with a vanishing residual make a neutral interval.
+    pub identically_static_run: usize,
 }
 
 impl Default for StaticsOptions {
@@ -38,6 +43,8 @@ impl Default for StaticsOptions {
             marginal_tol: 1e-8,
             near_horizon: 1e-6,
             horizon_margin: 1e-10,
+            identically_static_tol: 1e-10,
+            identically_static_run: 8,
         }
     }
 }
@@ -131,7 +138,11 @@ pub struct StaticsReport {
     pub to: f64,
     /// Intervals searched (the requested range split at horizons, keeping R-regions on both sides).
     pub intervals: Vec<Interval>,
-    /// Static radii, sorted.
+    /// Intervals on which the static condition holds identically (p0 - P(sigma0) vanishes to rounding relative
+    /// to its terms): every radius there is static and neutral (V = V' = V'' = 0 along the family); no roots are
+    /// listed inside them.
+    pub neutral_intervals: Vec<Interval>,
+    /// Static radii, sorted (none inside a neutral interval).
     pub static_radii: Vec<StaticRadius>,
     /// Sign changes rejected as poles (e.g. where sigma0 = 0 under a Chaplygin law).
     pub poles_rejected: Vec<f64>,
@@ -220,7 +231,7 @@ pub fn classify(
     let sigma = sv.stress.sigma();
     let beta = j.eos_at(Dual64::new(sigma, 1.0), Dual64::from)?.eps;
     let v = j.potential_taylor(&sv, Law::Scenario)?;
-    let scale = ls.v2_at_beta2_zero.abs() + (ls.v2_slope * beta).abs();
+    let scale = crate::junction::stability::marginal_scale(&ls, beta, a);
     let near =
         [0usize, 1].iter().any(|&i| sv.jets[i].b[0].abs() <= opts.near_horizon * (1.0 + a * sv.jets[i].b[1].abs()));
     Some(StaticRadius {
@@ -238,6 +249,44 @@ pub fn classify(
         near_horizon: near,
         energy_conditions: crate::junction::EnergyConditions::evaluate(sigma, sv.stress.pressure(), s.dimension),
     })
+}
+
+/// The parts of a search interval where the static condition holds identically: runs of at least
+/// `opts.identically_static_run` consecutive samples (`roots::sample_points`, as in the root search) at which
+/// |p0 - P(sigma0)| <= `opts.identically_static_tol` * (sum of |K^tau_tau_i| and |K^theta_theta_i| over 8 pi + |P|),
+/// i.e. the residual is rounding noise of the terms it is built from. An isolated root never qualifies: near a
+/// simple (double) root the residual is that small only within ~1e-10 (1e-5) of the radius, far less than the
+/// sample spacing. Example: dust (p = 0), flat inside, extremal Reissner-Nordstrom outside: p0 = 0 at every radius.
+pub fn neutral_intervals(j: &Junction<f64>, iv: &Interval, opts: &StaticsOptions) -> Vec<Interval> {
+    let xs = crate::roots::sample_points(iv.from, iv.to, opts.roots.samples);
+    let zero: Vec<bool> = xs
+        .iter()
+        .map(|&a| {
+            residual(j, a).is_some_and(|(f, sv)| {
+                let st = &sv.stress;
+                let terms = (st.k_ss.iter().chain(&st.k_thth).map(|k| k.abs()).sum::<f64>())
+                    / (8.0 * std::f64::consts::PI)
+                    + (st.pressure() - f).abs();
+                f.abs() <= opts.identically_static_tol * terms && terms > 0.0
+            })
+        })
+        .collect();
+    let mut out = Vec::new();
+    let mut i = 0;
+    while i < xs.len() {
+        if !zero[i] {
+            i += 1;
+            continue;
+        }
+        let start = i;
+        while i < xs.len() && zero[i] {
+            i += 1;
+        }
+        if i - start >= opts.identically_static_run.max(2) {
+            out.push(Interval { from: xs[start], to: xs[i - 1] });
+        }
+    }
+    out
 }
 
 /// Every static radius of the scenario's equation of state in [lo, hi], at the scenario's parameter values.
@@ -261,10 +310,17 @@ pub fn find_static_radii(s: &Scenario, lo: f64, hi: f64, opts: &StaticsOptions) 
     let fp = |a: f64| residual(&j2, Dual2::new(a, 1.0, 0.0)).map(|(v, _)| (v.v1, v.v2));
     let mut radii = Vec::new();
     let mut poles = Vec::new();
+    let mut neutral = Vec::new();
     for iv in &intervals {
+        let nv = neutral_intervals(&j0, iv, opts);
+        // A sample spacing of slack on each side: the run's ends are the last samples found neutral.
+        let step = (iv.to - iv.from) / opts.roots.samples as f64;
+        let inside =
+            |x: f64| nv.iter().any(|n| x >= n.from - step.max(1e-6 * n.from) && x <= n.to + step.max(1e-6 * n.to));
         let scan = find_roots(&f, Some(&fp), iv.from, iv.to, &opts.roots);
-        poles.extend(scan.poles.iter().map(|p| p.x));
-        for r in scan.roots {
+        poles.extend(scan.poles.iter().map(|p| p.x).filter(|&x| !inside(x)));
+        neutral.extend(nv.iter().copied());
+        for r in scan.roots.into_iter().filter(|r| !inside(r.x)) {
             if let Some(sr) = classify(s, &j0, r.x, r.kind == RootKind::Double, opts) {
                 radii.push(sr);
             }
@@ -296,6 +352,7 @@ pub fn find_static_radii(s: &Scenario, lo: f64, hi: f64, opts: &StaticsOptions) 
         from: lo,
         to: hi,
         intervals,
+        neutral_intervals: neutral,
         static_radii: radii,
         poles_rejected: poles,
         notes,

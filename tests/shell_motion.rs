@@ -214,3 +214,37 @@ fn identically_static_law_is_one_neutral_interval() {
     assert_eq!(ev.linear_verdict, Some("marginal"));
     assert!(ev.linear_growth_time.is_none() && ev.linear_period.is_none());
 }
+
+/// `derive` at a moving state reports the flux term Xi = (D-2)(X_plus Phi_plus' - X_minus Phi_minus')/(8 pi R)
+/// (Garcia, Lobo & Visser 2012). Interior A = 1 + k r^2, B = 1 (Phi_-' = k r/(1 + k r^2), X_- = sqrt(1 + Rdot^2)),
+/// Schwarzschild exterior (Phi_+' = 0): Xi = -sqrt(1 + Rdot^2) k/(4 pi (1 + k R^2)) in D = 4 (worked by hand from
+/// that formula; common practice).
+#[test]
+fn derive_reports_the_flux_term_of_a_moving_state() {
+    let s = Scenario::parse(
+        r#"
+name = "A != B interior"
+[parameters]
+m = 1.0
+k = -0.01
+[minus]
+A = "1 + k*r^2"
+B = "1"
+keep = "inner"
+[plus]
+A = "1 - 2*m/r"
+keep = "outer"
+"#,
+        None,
+    )
+    .unwrap();
+    let (r, v, k) = (5.0f64, 0.3f64, -0.01f64);
+    let state = junctura::report::derive::State { radius: r, velocity: v, acceleration: 0.02 };
+    let rep = junctura::report::derive::derive(&s, state).unwrap();
+    let want = -(1.0 + v * v).sqrt() * k / (4.0 * std::f64::consts::PI * (1.0 + k * r * r));
+    let xi = rep.flux_term.expect("flux term of a moving state");
+    assert!(rel(xi, want) < 1e-12, "{xi} vs {want}");
+    let csv = junctura::export::derive::csv(&rep);
+    assert!(csv.lines().nth(1).unwrap().ends_with(",flux_term [1/M^2]"), "{csv}");
+    assert!(junctura::export::derive::text(&rep).contains("flux term Xi"));
+}

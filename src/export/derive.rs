@@ -135,6 +135,9 @@ pub fn latex(r: &DeriveReport) -> String {
     if let Some(m) = r.shell_mass {
         o.push_str(&format!("$M_{{s}}$ & ${}$ \\\\\n", latex_num(m)));
     }
+    if let Some(x) = r.flux_term {
+        o.push_str(&format!("$\\Xi$ & ${}$ \\\\\n", latex_num(x)));
+    }
     if let Some(Some(b)) = r.beta2_critical {
         o.push_str(&format!("$\\beta^{{2}}_{{c}}$ & ${}$ \\\\\n", latex_num(b)));
     }
@@ -159,7 +162,7 @@ pub fn csv(r: &DeriveReport) -> String {
     let b =
         |f: fn(&crate::junction::EnergyConditions) -> bool| ec.as_ref().map(|e| f(e).to_string()).unwrap_or_default();
     format!(
-        "# {}\nshell_kind,radius [M],velocity [1],acceleration [1/M],sigma [1/M],pressure [1/M],S_ll [1/M],S_thth [1/M],K_ss_jump [1/M],K_thth_jump [1/M],shell_mass [M],potential [1],beta2_critical [1],stable_when,null,weak,strong,dominant\n{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{}\n",
+        "# {}\nshell_kind,radius [M],velocity [1],acceleration [1/M],sigma [1/M],pressure [1/M],S_ll [1/M],S_thth [1/M],K_ss_jump [1/M],K_thth_jump [1/M],shell_mass [M],potential [1],beta2_critical [1],stable_when,null,weak,strong,dominant,flux_term [1/M^2]\n{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{}\n",
         r.provenance,
         r.shell_kind,
         num(r.radius),
@@ -179,5 +182,6 @@ pub fn csv(r: &DeriveReport) -> String {
         b(|e| e.weak),
         b(|e| e.strong),
         b(|e| e.dominant),
+        o(r.flux_term),
     )
 }

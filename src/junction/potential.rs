@@ -54,7 +54,9 @@ impl<'a, T: Scalar> Junction<'a, T> {
         potential_from_y(self.eps, bm, bp, -self.kappa(r, sigma))
     }
 
-    /// The flux term Xi of the conservation law at a static radius (zero when A = B on both sides).
+    /// The flux term Xi = (D-2)(X_plus Phi_plus' - X_minus Phi_minus')/(8 pi R) of the conservation law
+    /// (module docs; Garcia, Lobo & Visser 2012) at the shell state in `sv`: a static radius, or a moving state
+    /// whose normals X_i = n^r_i = nu_i sqrt(Rdot^2 + B_i) are in `sv.stress` (zero when A = B on both sides).
     pub fn flux_term(&self, sv: &StaticValues<T>) -> T {
         let f = self.flux_sum(sv);
         f * (self.n_ang() / (8.0 * std::f64::consts::PI)) / sv.a

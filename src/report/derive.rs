@@ -131,7 +131,7 @@ pub struct DeriveReport {
     /// Static timelike: V'(a0) with the linearised law (zero at a static solution; a check).
     #[serde(skip_serializing_if = "Option::is_none")]
     pub potential_first_derivative: Option<f64>,
-    /// Static timelike: flux term Xi of the conservation law.
+    /// Timelike (static or moving state): flux term Xi of the conservation law.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub flux_term: Option<f64>,
     /// Static timelike: critical beta^2 (null when V'' does not depend on beta^2).
@@ -246,6 +246,10 @@ pub fn derive(s: &Scenario, state: State) -> Result<DeriveReport> {
             rep.pressure = Some(p);
             rep.shell_mass = Some(shell_mass(r, sigma, s.dimension));
             rep.energy_conditions = Some(EnergyConditions::evaluate(sigma, p, s.dimension));
+            if !state.is_static() {
+                // The flux term of the conservation law at this moving state (normals n^r_i = nu_i W_i).
+                rep.flux_term = Some(j.flux_term(&crate::junction::StaticValues { a: r, stress, jets }));
+            }
             if state.is_static() {
                 let sv = j.static_values(r)?;
                 let ls = j.linear_stability(&sv)?;

@@ -353,7 +353,7 @@ fn step_events(
                     radius: r,
                     side: Some(w.name()),
                     detail: format!(
-                        "n^r of the {w} side passed through zero (B = {b:.3e}, {}): now n^r {sign} sqrt(Rdot^2 + B)",
+                        "n^r of the {w} side passed through zero (B = {b:.3e}, {}): now n^r = {sign}sqrt(Rdot^2 + B)",
                         region_word(b)
                     ),
                 },

@@ -1,23 +1,25 @@
 //! Nonlinear dynamics of a timelike shell: its motion in proper time under the scenario's equation of state
-//! p = P(sigma), from a static radius set moving by a kick or a velocity.
+//! p = P(sigma), from any initial data, through the horizons of either side.
 //!
 //! What is integrated (see [`motion::Motion`] for the formulas and sources): the state (R, Rdot, sigma) with
-//! Rddot from the Lanczos theta-theta equation p = S^theta_theta(R, Rdot, Rddot) = P(sigma), which is linear in
-//! Rddot and solved for it, and sigma from the conservation law with its flux term. The energy constraint
-//! Rdot^2 + V(R, sigma) = 0 is not imposed; it holds at the start by construction and its drift along the run
-//! is reported as a check of the integration.
+//! sigma from the conservation law with its flux term and Rddot = -(1/2) dV/dR along sigma(R), V the potential of
+//! the energy constraint Rdot^2 + V(R, sigma) = 0. The normals n^r_i are algebraic in sigma, so nothing divides by
+//! B or by W_i = sqrt(Rdot^2 + B_i): horizons (B_i = 0) and flips of the normal (n^r_i = 0, inside T-regions) are
+//! regular points of the motion, reported as events ([`integrate::Event`]). The constraint is a first integral;
+//! its drift along the run is reported as a check of the integration.
 //!
 //! Starting states ([`run::Start`]):
-//! - a kick DA: the shell starts at rest at a0 + DA with sigma from the angular junction condition at rest there,
-//!   sigma = -(D-2)/(8 pi R) (nu_+ sqrt(B_+) - nu_- sqrt(B_-)), i.e. the static-family value at a0 + DA; then
-//!   Rdot^2 + V = 0 holds at the start, and the law p = P(sigma) (not the static family) governs what follows;
-//! - a velocity V0: the shell starts at a0 with Rdot = V0 and sigma from the angular condition with that
-//!   velocity, sigma = -(D-2)/(8 pi R) (nu_+ sqrt(V0^2 + B_+) - nu_- sqrt(V0^2 + B_-)).
+//! - `Moving(V)` / `Sigma { sigma, outward }`: at any radius R with dR/dtau = V (sigma from the angular junction
+//!   condition) or with sigma given (|dR/dtau| from the energy constraint), refused when no shell state exists;
+//! - a kick DA about a static radius a0: at rest at a0 + DA with sigma from the angular junction condition at rest
+//!   there, sigma = -(D-2)/(8 pi R) (nu_+ sqrt(B_+) - nu_- sqrt(B_-)); the law p = P(sigma) governs what follows;
+//! - a velocity V0 at a static radius a0, sigma from the angular condition with that velocity,
+//!   sigma = -(D-2)/(8 pi R) (nu_+ sqrt(V0^2 + B_+) - nu_- sqrt(V0^2 + B_-)).
 //!
 //! Integrator: Dormand-Prince 5(4) with error control ([`dopri`]), tolerances in [`EvolveOptions`]. Stop
-//! conditions ([`StopReason`]): the duration, the maximum number of turning points, a horizon of either side
-//! (B -> 0), R -> 0, Rdot^2 + B <= 0, the law undefined (e.g. sigma reaching zero under p = -c/sigma), a
-//! non-finite value, a step underflow, the step limit.
+//! conditions ([`StopReason`]): the duration, the maximum number of turning points, a horizon of either side only
+//! when asked (`stop_at_horizon`), R -> 0, the law undefined (e.g. sigma reaching zero under p = -c/sigma), a
+//! signature change, a non-finite value, a step underflow, the step limit.
 //!
 //! ```
 //! use junctura::dynamics::{evolve, EvolveOptions, Start};
@@ -50,6 +52,6 @@ pub mod motion;
 pub mod run;
 
 pub use analysis::{Ensemble, Fate, Member, Period};
-pub use integrate::{integrate, EvolveOptions, Sample, StopReason, Trajectory};
+pub use integrate::{integrate, Event, EventKind, EvolveOptions, Sample, StopReason, Trajectory};
 pub use motion::{Aux, Halt, Motion};
-pub use run::{evolve, EvolveReport, Initial, Start};
+pub use run::{evolve, initial_from_data, EvolveReport, Initial, SideMotion, Start};

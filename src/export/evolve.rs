@@ -85,7 +85,10 @@ pub fn evolve_text(r: &EvolveReport) -> String {
             p.method.replace('_', " "),
             opt(r.period_ratio)
         )),
-        None => o.push_str("measured period: none (fewer than two same-direction crossings of a0)\n"),
+        None if r.static_radius.is_some() => {
+            o.push_str("measured period: none (fewer than two same-direction crossings of a0)\n")
+        }
+        None => o.push_str("measured period: none (fewer than two same-direction crossings of the starting radius)\n"),
     }
     o.push_str(&format!(
         "energy constraint: max |Rdot² + V| / (1 + Rdot²) = {:.3e}   steps: {} accepted, {} rejected (rtol {:.0e}, atol {:.0e})\n",

@@ -317,7 +317,8 @@ pub fn sweep_with_progress(
                 let (_, sv) = super::residual(&j, a)?;
                 let ls = j.linear_stability(&sv).ok()?;
                 let v2 = j.potential_taylor(&sv, Law::Scenario)?[2];
-                let scale = ls.v2_at_beta2_zero.abs() + ls.v2_slope.abs();
+                // The one marginal rule (`stability::marginal_scale`), with the slope at its full size.
+                let scale = crate::junction::stability::marginal_scale(&ls, 1.0, a);
                 Some(BranchPoint {
                     value: values[vi],
                     radius: a,

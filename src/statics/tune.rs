@@ -86,7 +86,8 @@ fn solution(s: &Scenario, k: usize, a: f64, lam: f64, opts: &StaticsOptions) -> 
     let j = Junction::new(&sc);
     let (_, sv) = residual(&j, a)?;
     let ls = j.linear_stability(&sv).ok()?;
-    let scale = ls.v2_at_beta2_zero.abs() + ls.v2_slope.abs();
+    // The one marginal rule (`stability::marginal_scale`), with the slope at its full size.
+    let scale = crate::junction::stability::marginal_scale(&ls, 1.0, a);
     Some(TuneSolution {
         radius: a,
         parameter: s.params.names()[k].clone(),

@@ -36,6 +36,7 @@ pub mod junction;
 pub mod metric;
 pub mod output;
 pub mod plot;
+pub mod rational;
 pub mod report;
 pub mod roots;
 pub mod scan;

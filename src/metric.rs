@@ -96,8 +96,34 @@ pub struct SideSurvey {
     pub poles: Vec<f64>,
 }
 
-/// Horizons of a side in [lo, hi]: every root of B, simple or degenerate.
+/// Horizons of a side in [lo, hi]: every root of B, simple or degenerate, and the poles of B (sign changes
+/// through infinity). Roots come from the sampled search of `roots::find_roots` (sign changes, and minima of |B|
+/// where B and B' vanish together: double roots); when B is rational in r, the real roots of its numerator from
+/// the companion matrix (`rational`) replace the sampled ones near them, giving degenerate horizons to rounding.
 pub fn horizons(fns: &SideFns, lo: f64, hi: f64, opts: &RootOptions) -> (Vec<Horizon>, Vec<f64>) {
+    let (mut hs, poles) = sampled_horizons(fns, lo, hi, opts);
+    if let Some((num, den)) = crate::rational::rational(fns.b, fns.params) {
+        let dscale = den.iter().fold(0.0f64, |m, c| m.max(c.abs()));
+        let exact: Vec<Horizon> = crate::rational::real_roots(&num, lo, hi)
+            .into_iter()
+            .filter(|&(x, _)| {
+                let d = den.iter().rev().fold(0.0, |acc, c| acc * x + c);
+                d.abs() > 1e-12 * dscale * x.abs().max(1.0).powi(den.len() as i32 - 1)
+            })
+            .map(|(x, k)| {
+                let d: Dual2<f64, f64> = fns.b(Dual2::new(x, 1.0, 0.0));
+                Horizon { radius: x, degenerate: k >= 2, b_slope: if k >= 2 { 0.0 } else { d.v1 } }
+            })
+            .collect();
+        let tol = crate::rational::CLUSTER_TOL;
+        hs.retain(|h| !exact.iter().any(|e| (e.radius - h.radius).abs() <= tol * e.radius.abs().max(1e-300)));
+        hs.extend(exact);
+        hs.sort_by(|a, b| a.radius.total_cmp(&b.radius));
+    }
+    (hs, poles)
+}
+
+fn sampled_horizons(fns: &SideFns, lo: f64, hi: f64, opts: &RootOptions) -> (Vec<Horizon>, Vec<f64>) {
     let f = |r: f64| {
         let d: Dual2<f64, f64> = fns.b(Dual2::new(r, 1.0, 0.0));
         Some((d.re, d.v1))
@@ -248,7 +274,8 @@ mod tests {
         let (hs, _) = horizons(&fns, 0.01, 100.0, &RootOptions::default());
         assert_eq!(hs.len(), 1);
         assert!(hs[0].degenerate);
-        assert!((hs[0].radius - 1.0).abs() < 1e-8);
+        // Exact to rounding: the numerator r^2 - 2r + 1 has the double root 1 (companion matrix, `rational`).
+        assert!((hs[0].radius - 1.0).abs() < 1e-14, "{}", hs[0].radius);
     }
 
     /// Extremal Reissner-Nordstrom, B = (1 - M/r)^2 >= 0: an R-region on both sides of the double horizon r = M

@@ -527,7 +527,7 @@ pub fn evolve(
     }
     let sides = side_motions(&motion, &tr);
     for sd in &sides {
-        if sd.horizon_crossings > 0 && sd.region_end == Some(RegionKind::T) {
+        if sd.region_end == Some(RegionKind::T) {
             notes.push(format!(
                 "the run ends inside a horizon of the {} side (a T-region): there r is a time coordinate and the shell cannot stop",
                 sd.side

@@ -248,3 +248,40 @@ keep = "outer"
     assert!(csv.lines().nth(1).unwrap().ends_with(",flux_term [1/M^2]"), "{csv}");
     assert!(junctura::export::derive::text(&rep).contains("flux term Xi"));
 }
+
+/// The command line carries the same run: `--sigma S --direction inward` on the charged-dust scenario lists the
+/// four horizon crossings and the bounce in the JSON and as `# event:` lines in the CSV (proper times as in
+/// shell_motion_reference.py, case 2).
+#[test]
+fn evolve_command_lists_the_events_in_json_and_csv() {
+    let c = &golden()["charged_dust"];
+    let p = root().join("scenarios/charged-dust-bounce.toml");
+    let sigma = c["sigma_start"].as_f64().unwrap().to_string();
+    let run = |fmt: &str| {
+        let out = std::process::Command::new(env!("CARGO_BIN_EXE_junctura"))
+            .args(["evolve", p.to_str().unwrap(), "--radius", "5", "--sigma", &sigma, "--direction", "inward"])
+            .args(["--duration", "3", "--format", fmt])
+            .output()
+            .unwrap();
+        assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+        String::from_utf8(out.stdout).unwrap()
+    };
+    let v: Value = serde_json::from_str(&run("json")).unwrap();
+    assert!(v["static_radius"].is_null());
+    let crossings: Vec<f64> = v["events"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter(|e| e["kind"] == "horizon_crossing")
+        .map(|e| e["tau"].as_f64().unwrap())
+        .collect();
+    let want = ["tau_outer_inward", "tau_inner_inward", "tau_inner_outward", "tau_outer_outward"].map(|k| g(c, k));
+    assert_eq!(crossings.len(), 4);
+    for (t, w) in crossings.iter().zip(want) {
+        assert!(rel(*t, w) < 1e-8, "{t} vs {w}");
+    }
+    assert_eq!(v["sides"][1]["horizon_crossings"], 4);
+    let csv = run("csv");
+    assert_eq!(csv.lines().filter(|l| l.starts_with("# event: horizon_crossing")).count(), 4);
+    assert_eq!(csv.lines().filter(|l| l.starts_with("# event: turning_point")).count(), 1);
+}

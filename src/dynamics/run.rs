@@ -201,7 +201,7 @@ pub fn initial_state(j: &Junction<f64>, a0: f64, start: Start) -> Result<Initial
     let (r, v, what) = match start {
         Start::Kick(da) => (a0 + da, 0.0, format!("--kick {da}")),
         Start::Velocity(v) => (a0, v, format!("--velocity {v}")),
-        Start::Moving(_) | Start::Sigma { .. } => return unreachable_start(),
+        Start::Moving(_) | Start::Sigma { .. } => return needs_static_radius(),
     };
     if !(r.is_finite() && v.is_finite() && r > 0.0) {
         return Err(Error::input(format!("{what}: the starting radius {r} must be a positive number"))
@@ -372,7 +372,7 @@ pub fn initial_from_data(s: &Scenario, j: &Junction<f64>, r: f64, start: Start) 
             };
             (rdot, sigma, what)
         }
-        _ => unreachable_start()?,
+        _ => needs_static_radius()?,
     };
     // The normals the junction condition gives must agree with the sides' orientation where it is fixed.
     let motion = Motion::new(j, sigma);
@@ -401,7 +401,7 @@ pub fn initial_from_data(s: &Scenario, j: &Junction<f64>, r: f64, start: Start) 
     Ok(Initial { radius: r, rdot, sigma })
 }
 
-fn unreachable_start<T>() -> Result<T> {
+fn needs_static_radius<T>() -> Result<T> {
     Err(Error::input("a static-radius start (--kick, --from-static) needs a static radius")
         .with_hint("use --kick DA or --from-static"))
 }

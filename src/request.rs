@@ -97,3 +97,30 @@ pub fn parse_pair(flag: &str, spec: &str) -> Result<(f64, f64)> {
     }
     Ok((lo, hi))
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn axis_values_include_both_ends_like_linspace() {
+        let a = parse_axis("--vary", "w:0.3:1.2:4").unwrap();
+        assert_eq!(a.name, "w");
+        let v = a.values();
+        assert_eq!(v.len(), 4);
+        assert_eq!((v[0], v[3]), (0.3, 1.2));
+        assert!((v[1] - 0.6).abs() < 1e-15 && (v[2] - 0.9).abs() < 1e-15);
+        assert_eq!(parse_axis("--x", "radius:2:3:1").unwrap().values(), vec![2.0]);
+    }
+
+    #[test]
+    fn bad_axes_and_ranges_name_the_option() {
+        let e = parse_axis("--x", "radius:3:2:5").unwrap_err();
+        assert!(e.message.starts_with("--x radius:3:2:5") && e.message.contains("LO must be smaller"));
+        assert!(parse_axis("--y", "beta2:-1:1").unwrap_err().message.contains("expected 4 fields"));
+        assert!(parse_pair("--within", "2:1").unwrap_err().message.contains("--within 2:1"));
+        assert_eq!(parse_pair("--within", "-2:0").unwrap(), (-2.0, 0.0));
+        assert!(range(Some(-1.0), Some(2.0), (1.0, 2.0)).unwrap_err().message.contains("positive"));
+        assert_eq!(range(None, Some(5.0), (1.0, 2.0)).unwrap(), (1.0, 5.0));
+    }
+}

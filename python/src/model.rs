@@ -305,8 +305,8 @@ impl Model {
         let s = &self.s;
         let spec = map_spec(s, x, y, beta2, from_, to).py(py)?;
         check_size(&spec, true).py(py)?;
-        let cells = py.detach(|| map_cells(s, &spec)).py(py)?;
-        report_progress(progress.as_ref(), spec.n_lines(), spec.n_lines());
+        let cb = progress.as_ref();
+        let cells = py.detach(|| map_cells(s, &spec, &|d, t| report_progress(cb, d, t))).py(py)?;
         let (nx, ny) = (spec.x.n, spec.y.n);
         let mut summary = Summary::default();
         for c in &cells {

@@ -75,7 +75,8 @@ pub fn map_summary(s: &Scenario, spec: &MapSpec, lines: std::ops::Range<usize>) 
 }
 
 /// Every cell of the map, row-major in (iy, ix): cell `iy * x.n + ix`. Refused above [`MAX_KEPT_CELLS`].
-pub fn map_cells(s: &Scenario, spec: &MapSpec) -> Result<Vec<Cell>> {
+/// `progress(done, total)` is called after each block of lines.
+pub fn map_cells(s: &Scenario, spec: &MapSpec, progress: &dyn Fn(usize, usize)) -> Result<Vec<Cell>> {
     let n = spec.x.n as u64 * spec.y.n as u64;
     if n > MAX_KEPT_CELLS {
         return Err(Error::input(format!(
@@ -85,10 +86,18 @@ pub fn map_cells(s: &Scenario, spec: &MapSpec) -> Result<Vec<Cell>> {
         .with_hint("use fewer points, or write the map to files (it streams) or count it (summary)"));
     }
     let mut out = vec![None; n as usize];
-    for line in evaluate_lines(s, spec, 0..spec.n_lines())? {
-        for c in line {
-            out[c.iy as usize * spec.x.n + c.ix as usize] = Some(c);
+    let total = spec.n_lines();
+    let chunk = 64.max(total / 100);
+    let mut start = 0;
+    while start < total {
+        let end = (start + chunk).min(total);
+        for line in evaluate_lines(s, spec, start..end)? {
+            for c in line {
+                out[c.iy as usize * spec.x.n + c.ix as usize] = Some(c);
+            }
         }
+        progress(end, total);
+        start = end;
     }
     out.into_iter()
         .collect::<Option<Vec<Cell>>>()
@@ -151,4 +160,45 @@ pub fn write_map(
         )?);
     }
     Ok(written)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::scan::CellClass;
+
+    fn wormhole() -> Scenario {
+        Scenario::parse(
+            "name = \"w\"\n[parameters]\nm = 1.0\n[minus]\nA = \"1 - 2*m/r\"\nkeep = \"outer\"\n[plus]\nA = \"1 - 2*m/r\"\nkeep = \"outer\"\n",
+            None,
+        )
+        .unwrap()
+    }
+
+    #[test]
+    fn map_cells_are_row_major_in_y_then_x() {
+        let s = wormhole();
+        let spec = map_spec(&s, "radius:2.5:5.5:7", "beta2:-2:1:5", None, None, None).unwrap();
+        let cells = map_cells(&s, &spec, &|_, _| {}).unwrap();
+        assert_eq!(cells.len(), 35);
+        for (k, c) in cells.iter().enumerate() {
+            assert_eq!((c.iy as usize, c.ix as usize), (k / 7, k % 7));
+            assert_eq!((c.x, c.y), (spec.x.value(c.ix as usize), spec.y.value(c.iy as usize)));
+        }
+        // Poisson & Visser 1995: beta^2_crit(a = 4M) = -1.75, and above a = 3M the shell is stable below it: at
+        // a = 4M (ix = 3) the cell at beta^2 = -2 (iy = 0) is stable, the one at beta^2 = 1 (iy = 4) is not.
+        let at = |ix: usize, iy: usize| cells[iy * 7 + ix].class;
+        assert_eq!(at(3, 0), CellClass::Stable);
+        assert_eq!(at(3, 4), CellClass::Unstable);
+        assert!((cells[3].beta2_critical + 1.75).abs() < 1e-12);
+    }
+
+    #[test]
+    fn oversized_maps_are_refused_before_any_work() {
+        let s = wormhole();
+        let spec = map_spec(&s, "radius:2.5:6:3000", "beta2:-2:1:3000", None, None, None).unwrap();
+        assert!(map_cells(&s, &spec, &|_, _| {}).unwrap_err().message.contains("more than 4000000 cells"));
+        assert!(check_size(&spec, true).is_ok());
+        assert!(map_spec(&s, "radius:2.5:6:3", "radius:2:3:3", None, None, None).is_err());
+    }
 }

@@ -200,10 +200,11 @@ class Scenario:
     def evolve(self, radius, duration, kick=None, velocity=None, max_turns=20, ensemble=None):
         """Integrate the nonlinear motion from the static radius ``radius``: at rest at ``radius + kick``, or
         at ``radius`` with dR/dtau = ``velocity``; ``ensemble=(n, spread)`` adds n kicks in [-spread, spread].
-        Figures: ``evolve_radius``, ``evolve_phase``."""
+        ``samples`` is the time series (columns ``tau``, ``radius``, ``rdot``, ``sigma``, ``pressure``,
+        ``constraint`` as arrays). Figures: ``evolve_radius``, ``evolve_phase``."""
         ens = None if ensemble is None else (int(ensemble[0]), float(ensemble[1]))
         raw = self._m.evolve(float(radius), float(duration), kick, velocity, int(max_turns), ens)
-        return _result("EvolveResult", raw)
+        return Result("EvolveResult", raw["result"], raw["figures"], {"samples": raw["samples"]})
 
     def geodesic(self, radius, energy, null=False, shell_velocity=0.0, direction=None):
         """A radial test particle (or light ray, ``null=True``) with Killing energy ``energy`` on the minus
@@ -244,17 +245,4 @@ def chain(path=None, text=None, crossings=None, mass=None, within=None):
     ``csv`` attribute is the command line's CSV table. Figures: ``chain_distance``, ``chain_energy`` where
     defined."""
     raw = _native.chain(None if path is None else str(path), text, crossings, mass, within)
-    return _ChainResult(raw)
-
-
-class _ChainResult(Result):
-    __slots__ = ("_csv",)
-
-    def __init__(self, raw):
-        super().__init__("ChainResult", raw["result"], raw["figures"])
-        object.__setattr__(self, "_csv", raw["csv"])
-
-    @property
-    def csv(self):
-        """The CSV table the command line prints with ``--format csv``."""
-        return self._csv
+    return Result("ChainResult", raw["result"], raw["figures"], {"csv": raw["csv"]})

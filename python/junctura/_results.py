@@ -241,11 +241,18 @@ class Figure:
 class Result(Record):
     """An analysis result: its fields as a :class:`Record`, plus ``figures`` (name -> :class:`Figure`)."""
 
-    __slots__ = ("_figures",)
+    __slots__ = ("_figures", "_extras")
 
-    def __init__(self, name, data, figures=None):
+    def __init__(self, name, data, figures=None, extras=None):
         super().__init__(name, plain(data))
         object.__setattr__(self, "_figures", {k: Figure(v) for k, v in (figures or {}).items()})
+        object.__setattr__(self, "_extras", {k: wrap(k, v) for k, v in (extras or {}).items()})
+
+    def __getattr__(self, key):
+        extras = object.__getattribute__(self, "_extras")
+        if key in extras:
+            return extras[key]
+        return super().__getattr__(key)
 
     @property
     def figures(self):
@@ -261,7 +268,7 @@ class Result(Record):
         return self._figures[name]
 
     def __dir__(self):
-        return super().__dir__() + ["figures", "figure"]
+        return super().__dir__() + list(self._extras) + ["figures", "figure"]
 
 
 class MapResult(Result):

@@ -364,7 +364,7 @@ impl Model {
 
     /// The nonlinear motion from a static radius (`evolve`): exactly one of `kick` (start at rest at a0 + kick)
     /// or `velocity` (start at a0 with dR/dtau = velocity); `ensemble` = (N, spread) adds N kicks in
-    /// [-spread, spread].
+    /// [-spread, spread]. `samples` holds the time series.
     #[pyo3(signature = (radius, duration, kick=None, velocity=None, max_turns=20, ensemble=None))]
     #[allow(clippy::too_many_arguments)]
     fn evolve<'py>(
@@ -378,7 +378,10 @@ impl Model {
         ensemble: Option<(usize, f64)>,
     ) -> PyResult<Bound<'py, PyDict>> {
         let (rep, figs) = evolve_adapter(&self.s, py, radius, duration, kick, velocity, max_turns, ensemble)?;
-        bundle(py, &rep, figs)
+        let d = bundle(py, &rep, figs)?;
+        // The time series (the CLI's CSV rows), outside `result` so that it stays the CLI's JSON.
+        d.set_item("samples", to_object(py, &rep.samples)?)?;
+        Ok(d)
     }
 
     /// A radial test particle (or light ray, `null=True`) crossing the shell at `radius` (`geodesic`).
@@ -474,7 +477,7 @@ pub fn chain<'py>(
         junctura::report::figures::chain_figures(&r.series, thr_plot, &r.provenance)
             .into_iter()
             .filter(|(_, fig)| fig.series.iter().any(|s| s.points.iter().any(|p| p.1.is_finite())))
-            .map(|(n, f)| (format!("chain_{n}"), f))
+            .map(|(n, f)| (n.to_string(), f))
             .collect();
     let d = PyDict::new(py);
     d.set_item("result", to_object(py, &r)?)?;

@@ -121,3 +121,12 @@ def test_progress_callback_is_called():
 def test_version_is_the_library_version():
     sc = junctura.Scenario.load(GRAVASTAR)
     assert sc.provenance.startswith(f"junctura {junctura.__version__} |")
+
+
+def test_chain_figures_and_nested_columns():
+    ch = junctura.chain("scenarios/chains/bounce-chain.toml", crossings=20, mass="1Msun")
+    assert sorted(ch.figures) == ["chain_distance", "chain_energy"]
+    assert ch.figure("chain_distance").svg().lstrip().startswith("<svg")
+    apex = ch.rows.apex  # a column of records is a table again
+    assert apex.areal_distance.shape == (20,) and apex.areal_distance.dtype == np.float64
+    assert ch.csv.startswith("# junctura ")

@@ -120,3 +120,16 @@ def test_chain_matches_the_cli(cli, cli_json):
     same(got.to_dict(), want)
     assert got.csv == cli("chain", p, "--crossings", "40", "--mass", "1Msun", "--format", "csv").stdout
     assert np.all(np.diff(got.rows.crossing) == 1)
+
+
+def test_evolve_time_series_matches_the_cli_csv(cli):
+    p = "scenarios/gravastar-linear.toml"
+    args = ["--radius", "3.063772328317274", "--kick", "0.01", "--duration", "50"]
+    out = cli("evolve", p, *args, "--format", "csv").stdout
+    rows = [ln.split(",") for ln in out.splitlines() if ln and not ln.startswith("#")][1:]
+    ev = junctura.Scenario.load(p).evolve(3.063772328317274, 50.0, kick=0.01)
+    s = ev.samples
+    assert len(s) == len(rows) > 10
+    got = np.column_stack([s.tau, s.radius, s.rdot, s.sigma, s.pressure, s.constraint])
+    assert got.dtype == np.float64
+    assert np.array_equal(got, np.array(rows, dtype=float))

@@ -16,7 +16,7 @@ import junctura
 
 here = pathlib.Path(__file__).resolve().parent
 sc = junctura.Scenario.load(here.parents[1] / "scenarios" / "gravastar-linear.toml")
-sc
+print(sc)
 
 # %% Every static radius of the law, each with its linear stability.
 st = sc.statics()

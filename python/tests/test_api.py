@@ -46,7 +46,7 @@ def test_record_and_table_fields_are_arrays():
     assert isinstance(d["static_radii"][0]["potential"], list)
     assert "StaticsResult(" in repr(st) and "static_radii=" in repr(st)
     with pytest.raises(AttributeError, match="no field 'radii'"):
-        st.radii
+        st.radii  # noqa: B018
 
 
 def test_sweep_evolve_chain_arrays():

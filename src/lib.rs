@@ -38,10 +38,12 @@ pub mod output;
 pub mod plot;
 pub mod rational;
 pub mod report;
+pub mod request;
 pub mod roots;
 pub mod scan;
 pub mod scenario;
 pub mod statics;
+pub mod survey;
 pub mod units;
 
 pub use error::{Error, ErrorKind, Result};

@@ -2,11 +2,9 @@
 
 use super::common::to_json;
 use clap::ValueEnum;
-use junctura::geodesic::{chain_csv, chain_series, run_chain, Chain, ChainRow, ChainRun, Series};
+use junctura::geodesic::{chain_csv, chain_report, Chain, ChainReport};
 use junctura::output::{ensure_dir, print_stdout, warn, write_atomic};
-use junctura::units::{parse_length, parse_mass, Length, MassUnit, PLANCK_LENGTH_M};
 use junctura::Result;
-use serde::Serialize;
 use std::path::PathBuf;
 
 /// Output format of `chain`.
@@ -43,57 +41,15 @@ pub struct Args {
     out: Option<PathBuf>,
 }
 
-#[derive(Serialize)]
-struct Row<'a> {
-    #[serde(flatten)]
-    row: &'a ChainRow,
-    areal_distance_m: Option<f64>,
-    proper_distance_m: Option<f64>,
-}
-
-#[derive(Serialize)]
-struct Report<'a> {
-    chain: &'a str,
-    provenance: String,
-    crossings: usize,
-    mass_kg: Option<f64>,
-    mass_solar: Option<f64>,
-    length_unit_m: Option<f64>,
-    threshold: Option<f64>,
-    threshold_m: Option<f64>,
-    first_within_areal: Option<usize>,
-    first_within_proper: Option<usize>,
-    warnings: &'a [String],
-    rows: Vec<Row<'a>>,
-    series: Vec<Series>,
-}
-
 pub fn run(args: Args) -> Result<()> {
     let chain = Chain::load(&args.file)?;
     let crossings = args.crossings.unwrap_or(chain.crossings);
-    if crossings == 0 {
-        return Err(junctura::Error::input("--crossings 0: nothing to do").with_hint("give --crossings N with N >= 1"));
-    }
-    let unit = match &args.mass {
-        Some(m) => Some(MassUnit::new(parse_mass(m)?)?),
-        None => None,
-    };
-    let within = match (&args.within, &unit) {
-        (Some(w), _) => Some(parse_length(w)?),
-        (None, Some(_)) => Some(Length::Metres(PLANCK_LENGTH_M)),
-        (None, None) => None,
-    };
-    let threshold = within.map(|w| w.geometric(unit.as_ref())).transpose().map_err(|e| e.context("--within"))?;
-    let run = run_chain(&chain, crossings, threshold)?;
-    for w in &run.warnings {
+    let report = chain_report(&chain, crossings, args.mass.as_deref(), args.within.as_deref())?;
+    for w in &report.warnings {
         warn(w);
     }
-    let mut provenance = format!("{} | crossings {crossings}", chain.provenance());
-    if let (Some(m), Some(u)) = (&args.mass, &unit) {
-        provenance.push_str(&format!(" | mass {m} = {:.6e} kg, G M/c^2 = {:.9e} m", u.kg(), u.length_m()));
-    }
-    let report = report(&chain, &run, crossings, unit.as_ref(), provenance.clone());
-    let csv = chain_csv(&run, &provenance, unit.as_ref());
+    let (unit, threshold, provenance) = (report.unit, report.run.threshold, report.provenance.clone());
+    let csv = chain_csv(&report.run, &provenance, unit.as_ref());
     let json = to_json(&report);
     if let Some(dir) = &args.out {
         ensure_dir(dir)?;
@@ -124,45 +80,11 @@ pub fn run(args: Args) -> Result<()> {
     Ok(())
 }
 
-fn report<'a>(
-    chain: &'a Chain,
-    run: &'a ChainRun,
-    crossings: usize,
-    unit: Option<&MassUnit>,
-    provenance: String,
-) -> Report<'a> {
-    let to_m = |v: Option<f64>| unit.and_then(|u| v.map(|d| u.to_m(d)));
-    let rows = run
-        .rows
-        .iter()
-        .map(|row| Row {
-            row,
-            areal_distance_m: to_m(row.apex.and_then(|a| a.areal_distance)),
-            proper_distance_m: to_m(row.apex.and_then(|a| a.proper_distance)),
-        })
-        .collect();
-    Report {
-        chain: &chain.name,
-        provenance,
-        crossings,
-        mass_kg: unit.map(|u| u.kg()),
-        mass_solar: unit.map(|u| u.solar_masses()),
-        length_unit_m: unit.map(|u| u.length_m()),
-        threshold: run.threshold,
-        threshold_m: to_m(run.threshold),
-        first_within_areal: run.first_within_areal,
-        first_within_proper: run.first_within_proper,
-        warnings: &run.warnings,
-        rows,
-        series: chain_series(run, unit),
-    }
-}
-
 fn e(v: Option<f64>) -> String {
     v.map(|x| format!("{x:.6e}")).unwrap_or_else(|| "-".into())
 }
 
-fn text(r: &Report, si: bool) -> String {
+fn text(r: &ChainReport, si: bool) -> String {
     let mut o = format!("chain: {}\n{}\n", r.chain, r.provenance);
     if let Some(l) = r.length_unit_m {
         o.push_str(&format!("lengths in units of G M/c^2 = {l:.9e} m (and in m)\n"));

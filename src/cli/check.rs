@@ -1,12 +1,10 @@
 //! `junctura check`: validate a scenario and survey both sides.
 
 use super::common::{to_json, Format, RangeArgs, ScenarioArgs};
-use junctura::metric::{survey, RegionKind, SideFns, SideSurvey};
+use junctura::metric::RegionKind;
 use junctura::output::print_stdout;
-use junctura::roots::RootOptions;
-use junctura::scenario::{Scenario, Which};
+use junctura::survey::{survey, SurveyReport};
 use junctura::Result;
-use serde::Serialize;
 
 /// Arguments of `check`.
 #[derive(clap::Args, Debug)]
@@ -20,34 +18,10 @@ pub struct Args {
     format: Format,
 }
 
-#[derive(Serialize)]
-struct SideReport<'a> {
-    keep: &'a str,
-    normal_sign: f64,
-    #[serde(rename = "A")]
-    a: &'a str,
-    #[serde(rename = "B")]
-    b: &'a str,
-    #[serde(flatten)]
-    survey: SideSurvey,
-}
-
-#[derive(Serialize)]
-struct Report<'a> {
-    scenario: &'a str,
-    provenance: String,
-    dimension: u32,
-    shell_kind: &'a str,
-    from: f64,
-    to: f64,
-    minus: SideReport<'a>,
-    plus: SideReport<'a>,
-}
-
 pub fn run(args: Args) -> Result<()> {
     let s = args.scenario.load()?;
     let (lo, hi) = args.range.resolve(&s)?;
-    let report = build(&s, lo, hi);
+    let report = survey(&s, lo, hi);
     match args.format {
         Format::Json => print_stdout(&to_json(&report)),
         Format::Text | Format::Latex => print_stdout(&text(&report)),
@@ -56,32 +30,7 @@ pub fn run(args: Args) -> Result<()> {
     Ok(())
 }
 
-fn build(s: &Scenario, lo: f64, hi: f64) -> Report<'_> {
-    let opts = RootOptions { samples: 4000, ..Default::default() };
-    let side = |w: Which| {
-        let sd = s.side(w);
-        let fns = SideFns::new(sd, s.params.values());
-        SideReport {
-            keep: sd.keep.name(),
-            normal_sign: sd.normal_sign(),
-            a: sd.a.source(),
-            b: sd.b.source(),
-            survey: survey(&fns, lo, hi, &opts),
-        }
-    };
-    Report {
-        scenario: &s.name,
-        provenance: s.provenance(),
-        dimension: s.dimension,
-        shell_kind: s.shell.kind.name(),
-        from: lo,
-        to: hi,
-        minus: side(Which::Minus),
-        plus: side(Which::Plus),
-    }
-}
-
-fn text(r: &Report) -> String {
+fn text(r: &SurveyReport) -> String {
     let mut o = format!(
         "scenario: {}\n{}\nshell: {}, D = {}, radii {} .. {}\n",
         r.scenario, r.provenance, r.shell_kind, r.dimension, r.from, r.to
@@ -119,7 +68,7 @@ fn text(r: &Report) -> String {
 }
 
 /// One row per horizon, photon orbit and region boundary of each side.
-fn csv(r: &Report) -> String {
+fn csv(r: &SurveyReport) -> String {
     let mut o = format!("# {}\nside,feature,radius [M],detail\n", r.provenance);
     for (name, sd) in [("minus", &r.minus), ("plus", &r.plus)] {
         for h in &sd.survey.horizons {

@@ -2,15 +2,9 @@
 
 use super::common::{to_json, ScenarioArgs};
 use clap::ValueEnum;
-use junctura::geodesic::{
-    cross, max_radius, Apex, Crossing, CrossingRequest, Direction, Particle, QuadOptions, Radial, SideState,
-};
-use junctura::metric::{default_range, SideFns};
+use junctura::geodesic::{crossing_report, CrossingReport, CrossingRequest, Direction, Particle};
 use junctura::output::print_stdout;
-use junctura::roots::RootOptions;
-use junctura::scenario::{Keep, Scenario, Which};
 use junctura::Result;
-use serde::Serialize;
 
 /// Output format of `geodesic`.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
@@ -57,36 +51,6 @@ pub struct Args {
     format: GeoFormat,
 }
 
-#[derive(Serialize)]
-struct SideReport {
-    #[serde(flatten)]
-    state: SideState,
-    turning_points: Vec<f64>,
-    max_radius: Option<Apex>,
-    proper_time_to_max_radius: Option<f64>,
-    coordinate_time_to_max_radius: Option<f64>,
-    notes: Vec<String>,
-}
-
-#[derive(Serialize)]
-struct Report {
-    scenario: String,
-    provenance: String,
-    particle: Particle,
-    radius: f64,
-    shell_velocity: f64,
-    energy_minus: f64,
-    energy_plus: Option<f64>,
-    relative_lorentz_factor: Option<f64>,
-    relative_lorentz_factor_check: Option<f64>,
-    shell_frame_energy: Option<f64>,
-    can_cross: bool,
-    reason: Option<String>,
-    shell_kind: &'static str,
-    minus: SideReport,
-    plus: Option<SideReport>,
-}
-
 pub fn run(args: Args) -> Result<()> {
     let s = args.scenario.load()?;
     let particle = if args.null { Particle::Null } else { Particle::Timelike };
@@ -101,8 +65,7 @@ pub fn run(args: Args) -> Result<()> {
         particle,
         direction,
     };
-    let c = cross(&s, s.params.values(), &req)?;
-    let report = build(&s, &req, c);
+    let report = crossing_report(&s, &req)?;
     match args.format {
         GeoFormat::Json => print_stdout(&to_json(&report)),
         GeoFormat::Text => print_stdout(&text(&report)),
@@ -111,83 +74,11 @@ pub fn run(args: Args) -> Result<()> {
     Ok(())
 }
 
-/// The orbit of the particle on one side: turning points, apex above R, and the times to reach it.
-fn side_report(s: &Scenario, which: Which, state: SideState, req: &CrossingRequest) -> SideReport {
-    let roots = RootOptions { samples: 2000, ..Default::default() };
-    let quad = QuadOptions::default();
-    let fns = SideFns::new(s.side(which), s.params.values());
-    let rad = Radial::new(fns, state.energy, req.particle);
-    let (lo, hi) = default_range(s);
-    let (lo, hi) = (lo.min(0.5 * req.radius), hi.max(10.0 * req.radius));
-    let mut notes = Vec::new();
-    // Only the kept part of the side matters: r <= R (inner), r >= R (outer), all of it for a T-region.
-    let keep = s.side(which).keep;
-    let kept = |r: f64| match keep {
-        Keep::Inner => r <= req.radius,
-        Keep::Outer => r >= req.radius,
-        Keep::BlackHole | Keep::WhiteHole => true,
-    };
-    let turning_points: Vec<f64> = rad.turning_points(lo, hi, &roots).into_iter().filter(|r| kept(*r)).collect();
-    let mut apex = None;
-    let (mut tau, mut t) = (None, None);
-    if keep == Keep::Inner {
-        notes.push("this side keeps r < R: the orbit leaves it at the shell, so no maximal radius is reported".into());
-    } else if req.particle == Particle::Timelike {
-        match max_radius(&fns, state.energy * state.energy, req.radius, hi, &roots, &quad) {
-            Ok(Some(a)) => apex = Some(a),
-            Ok(None) => notes.push(format!("unbounded: no turning point above R up to r = {hi}")),
-            Err(e) => notes.push(format!("maximal radius: {}", e.message)),
-        }
-    } else {
-        notes.push("a radial light ray has no turning point".into());
-    }
-    if let Some(a) = &apex {
-        match rad.proper_time(req.radius, a.radius, &roots, &quad) {
-            Ok(q) => tau = Some(q.value),
-            Err(e) => notes.push(format!("proper time: {}", e.message)),
-        }
-        match rad.coordinate_time(req.radius, a.radius, &roots, &quad) {
-            Ok(q) => t = Some(q.value),
-            Err(e) => notes.push(format!("coordinate time: {}", e.message)),
-        }
-    }
-    SideReport {
-        state,
-        turning_points,
-        max_radius: apex,
-        proper_time_to_max_radius: tau,
-        coordinate_time_to_max_radius: t,
-        notes,
-    }
-}
-
-fn build(s: &Scenario, req: &CrossingRequest, c: Crossing) -> Report {
-    let minus = side_report(s, Which::Minus, c.minus, req);
-    let plus = c.plus.map(|p| side_report(s, Which::Plus, p, req));
-    Report {
-        scenario: s.name.clone(),
-        provenance: s.provenance(),
-        particle: req.particle,
-        radius: req.radius,
-        shell_velocity: req.shell_velocity,
-        energy_minus: c.energy_minus,
-        energy_plus: c.energy_plus,
-        relative_lorentz_factor: c.relative_lorentz_factor,
-        relative_lorentz_factor_check: c.relative_lorentz_factor_check,
-        shell_frame_energy: c.shell_frame_energy,
-        can_cross: c.can_cross,
-        reason: c.reason,
-        shell_kind: c.shell_kind,
-        minus,
-        plus,
-    }
-}
-
 fn fmt_opt(v: Option<f64>) -> String {
     v.map(|x| format!("{x:.12}")).unwrap_or_else(|| "-".into())
 }
 
-fn text(r: &Report) -> String {
+fn text(r: &CrossingReport) -> String {
     let what = match r.particle {
         Particle::Timelike => "particle",
         Particle::Null => "light ray",
@@ -239,7 +130,7 @@ fn text(r: &Report) -> String {
 }
 
 /// One row: the crossing's main numbers; empty fields where the particle cannot cross (`reason` says why).
-fn csv(r: &Report) -> String {
+fn csv(r: &CrossingReport) -> String {
     let o = |x: Option<f64>| x.map(|v| format!("{v:?}")).unwrap_or_default();
     let reason = r.reason.clone().unwrap_or_default().replace(',', ";");
     format!(

@@ -1,13 +1,14 @@
 //! `junctura map` (two-parameter maps, sharded or whole) and `junctura merge` (join shards).
 
-use super::common::{parse_axis, to_json};
-use junctura::export::map::{csv_header, csv_rows, meta, parse_rows, MapMeta};
+use super::common::to_json;
+use junctura::export::map::{parse_rows, MapMeta};
 use junctura::output::{ensure_dir, print_stdout, write_atomic, AtomicFile};
-use junctura::scan::{evaluate_lines, shard_lines, summarize_lines, Axis, Cell, MapSpec, Summary};
+use junctura::report::map::{check_size, map_spec, map_summary, write_map};
+use junctura::scan::{shard_lines, MapSpec, Summary};
 use junctura::scenario::Scenario;
 use junctura::{Error, Result};
 use std::io::IsTerminal;
-use std::path::{Path, PathBuf};
+use std::path::PathBuf;
 
 /// Arguments of `map`.
 #[derive(clap::Args, Debug)]
@@ -49,17 +50,7 @@ fn parse_shard(s: &str) -> Result<(usize, usize)> {
 }
 
 fn build_spec(s: &Scenario, a: &MapArgs) -> Result<MapSpec> {
-    let xs = parse_axis("--x", &a.x)?;
-    let ys = parse_axis("--y", &a.y)?;
-    let x = Axis::new(s, &xs.name, xs.lo, xs.hi, xs.n)?;
-    let y = Axis::new(s, &ys.name, ys.lo, ys.hi, ys.n)?;
-    let rr = a.range.resolve(s)?;
-    if let Some(b) = a.beta2 {
-        if !b.is_finite() {
-            return Err(Error::input(format!("--beta2 {b} is not a finite number")));
-        }
-    }
-    MapSpec::new(s, x, y, a.beta2, rr)
+    map_spec(s, &a.x, &a.y, a.beta2, a.range.from, a.range.to)
 }
 
 pub fn run(a: MapArgs) -> Result<()> {
@@ -76,111 +67,27 @@ pub fn run(a: MapArgs) -> Result<()> {
             if shard.is_some() && !a.summary {
                 return Err(Error::input("--shard needs --out DIR (the part file is written there) or --summary"));
             }
-            let sum = summarize_lines(&s, &spec, lines)?;
-            let mut v = serde_json::to_value(sum).unwrap_or_default();
-            if let Some(o) = v.as_object_mut() {
-                o.insert("provenance".into(), s.provenance().into());
-                o.insert("x".into(), spec.x.name.clone().into());
-                o.insert("y".into(), spec.y.name.clone().into());
-            }
+            let v = map_summary(&s, &spec, lines)?;
             print_stdout(&to_json(&v));
             Ok(())
         }
         (Some(dir), _) => {
             ensure_dir(dir)?;
-            let written = write_map(&s, &spec, lines, shard, dir)?;
+            let bar = progress(lines.len() as u64);
+            let written = write_map(&s, &spec, lines, shard, dir, &|done, _| {
+                if let Some(b) = &bar {
+                    b.set_position(done as u64);
+                }
+            })?;
+            if let Some(b) = bar {
+                b.finish_and_clear();
+            }
             for p in written {
                 eprintln!("wrote {}", p.display());
             }
             Ok(())
         }
     }
-}
-
-/// Most cells a map written to files may have (a CSV row is about 100 bytes: 1e9 cells is ~100 GB).
-const MAX_FILE_CELLS: u128 = 1_000_000_000;
-/// Most points on one axis of a map written to files (a line of cells is held in memory, ~100 bytes a cell).
-const MAX_LINE_CELLS: usize = 10_000_000;
-/// Most cells a `--summary` map may count (it streams, but 1e12 cells would take days).
-const MAX_SUMMARY_CELLS: u128 = 1_000_000_000_000;
-
-/// Refuse maps too large to write (or, for `--summary`, to finish), before any work starts.
-fn check_size(spec: &MapSpec, to_files: bool) -> Result<()> {
-    let cells = spec.x.n as u128 * spec.y.n as u128;
-    let what = format!("--x {} points x --y {} points = {cells} cells", spec.x.n, spec.y.n);
-    if to_files && (cells > MAX_FILE_CELLS || spec.x.n.max(spec.y.n) > MAX_LINE_CELLS) {
-        return Err(Error::input(format!(
-            "{what}: too many to write to files (at most {MAX_FILE_CELLS} cells, {MAX_LINE_CELLS} on one axis)"
-        ))
-        .with_hint("use fewer points, or --summary for counts only (it streams and stores no cells)"));
-    }
-    if !to_files && cells > MAX_SUMMARY_CELLS {
-        return Err(Error::input(format!(
-            "{what}: too many to count in reasonable time (at most {MAX_SUMMARY_CELLS})"
-        ))
-        .with_hint("use fewer points; the counts converge long before this resolution"));
-    }
-    Ok(())
-}
-
-/// Evaluate `lines` in chunks, streaming the CSV; returns the files written.
-fn write_map(
-    s: &Scenario,
-    spec: &MapSpec,
-    lines: std::ops::Range<usize>,
-    shard: Option<(usize, usize)>,
-    dir: &Path,
-) -> Result<Vec<PathBuf>> {
-    let stem = match shard {
-        Some((k, n)) => format!("map.part-{}-of-{}", k + 1, n),
-        None => "map".to_string(),
-    };
-    let csv_path = dir.join(format!("{stem}.csv"));
-    let mut csv = AtomicFile::create(&csv_path)?;
-    csv.write(csv_header(s, spec).as_bytes())?;
-    let total = lines.len();
-    let bar = progress(total as u64);
-    let mut summary = Summary::default();
-    let mut classes: Vec<Cell> = Vec::new();
-    let keep_cells = shard.is_none() && (spec.x.n as u64) * (spec.y.n as u64) <= 4_000_000;
-    // Lines per block: about 1% of the map, but never more than ~1e6 cells held at once.
-    let chunk = 64.max(total / 100).min((1usize << 20) / spec.line_len().max(1)).max(1);
-    let mut start = lines.start;
-    while start < lines.end {
-        let end = (start + chunk).min(lines.end);
-        let block = evaluate_lines(s, spec, start..end)?;
-        let mut text = String::new();
-        for line in &block {
-            csv_rows(line, &mut text);
-            for c in line {
-                summary.add(c.class, c.energy_bits);
-            }
-            if keep_cells {
-                classes.extend_from_slice(line);
-            }
-        }
-        csv.write(text.as_bytes())?;
-        if let Some(b) = &bar {
-            b.inc((end - start) as u64);
-        }
-        start = end;
-    }
-    if let Some(b) = bar {
-        b.finish_and_clear();
-    }
-    csv.finish()?;
-    let m = meta(s, spec, summary, shard);
-    let json_path = dir.join(format!("{stem}.json"));
-    write_atomic(&json_path, to_json(&m).as_bytes())?;
-    let mut written = vec![csv_path, json_path];
-    if keep_cells {
-        written.extend(junctura::plot::write_figure(
-            &junctura::report::figures::map_figure(s.provenance(), spec, &classes),
-            dir,
-            "map",
-        )?);
-    }
-    Ok(written)
 }
 
 fn progress(total: u64) -> Option<indicatif::ProgressBar> {

@@ -4,3 +4,4 @@ pub mod bundle;
 pub mod derive;
 pub mod evolve;
 pub mod figures;
+pub mod map;

@@ -1,0 +1,32 @@
+"""Exceptions raised by junctura. Every one is a :class:`JuncturaError`; the message names the file and
+line:column (or the parameter) of the bad input, and ``hint`` says how to fix it when the library can tell."""
+
+
+class JuncturaError(Exception):
+    """Base class: ``message`` (with location), ``hint`` (or None); ``str(e)`` shows both."""
+
+    kind = "error"
+
+    def __init__(self, message, hint=None):
+        self.message = message
+        self.hint = hint
+        text = message if hint is None else f"{message}\n  hint: {hint}"
+        super().__init__(text)
+
+
+class InputError(JuncturaError, ValueError):
+    """Invalid input: a scenario or chain file, an expression, a parameter or an argument."""
+
+    kind = "input"
+
+
+class NumericalError(JuncturaError, ArithmeticError):
+    """A numerical procedure failed, or the request lies where the formulas do not hold (e.g. on a horizon)."""
+
+    kind = "numerical"
+
+
+class IoError(JuncturaError, OSError):
+    """Reading or writing a file failed."""
+
+    kind = "io"

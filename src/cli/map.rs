@@ -35,6 +35,12 @@ pub struct MapArgs {
     /// Compute only shard K of N (K = 1..N) and write a part file (needs --out); join parts with `merge`.
     #[arg(long)]
     shard: Option<String>,
+    /// Maps over two parameters: which static radius gives a cell its class when there are several:
+    /// any-stable (the stable one if any; default), smallest or largest. map.csv lists every radius.
+    #[arg(long, default_value = "any-stable")]
+    root_rule: String,
+    #[command(flatten)]
+    figure: super::common::FigureArgs,
 }
 
 fn parse_shard(s: &str) -> Result<(usize, usize)> {
@@ -59,7 +65,12 @@ fn build_spec(s: &Scenario, a: &MapArgs) -> Result<MapSpec> {
             return Err(Error::input(format!("--beta2 {b} is not a finite number")));
         }
     }
-    MapSpec::new(s, x, y, a.beta2, rr)
+    let mut spec = MapSpec::new(s, x, y, a.beta2, rr)?;
+    spec.root_rule = junctura::scan::RootRule::parse(&a.root_rule).ok_or_else(|| {
+        Error::input(format!("--root-rule {}: unknown rule", a.root_rule))
+            .with_hint("use any-stable, smallest or largest")
+    })?;
+    Ok(spec)
 }
 
 pub fn run(a: MapArgs) -> Result<()> {
@@ -88,7 +99,8 @@ pub fn run(a: MapArgs) -> Result<()> {
         }
         (Some(dir), _) => {
             ensure_dir(dir)?;
-            let written = write_map(&s, &spec, lines, shard, dir)?;
+            let fig_opts = a.figure.options()?;
+            let written = write_map(&s, &spec, lines, shard, dir, &fig_opts)?;
             for p in written {
                 eprintln!("wrote {}", p.display());
             }
@@ -130,6 +142,7 @@ fn write_map(
     lines: std::ops::Range<usize>,
     shard: Option<(usize, usize)>,
     dir: &Path,
+    fig_opts: &junctura::plot::FigureOptions,
 ) -> Result<Vec<PathBuf>> {
     let stem = match shard {
         Some((k, n)) => format!("map.part-{}-of-{}", k + 1, n),
@@ -174,11 +187,20 @@ fn write_map(
     write_atomic(&json_path, to_json(&m).as_bytes())?;
     let mut written = vec![csv_path, json_path];
     if keep_cells {
-        written.extend(junctura::plot::write_figure(
-            &junctura::report::figures::map_figure(s.provenance(), spec, &classes),
-            dir,
-            "map",
-        )?);
+        let (lo, hi) = match (spec.x.kind, spec.y.kind) {
+            (junctura::scan::AxisKind::Radius, _) => (spec.x.lo, spec.x.hi),
+            _ => spec.radius_range,
+        };
+        let ov = junctura::report::figures::overlays(s, lo, hi);
+        let mut fig = junctura::report::figures::map_figure_with(
+            junctura::export::map::map_provenance(s, spec),
+            spec,
+            &classes,
+            Some(&ov),
+            &s.symbols,
+        );
+        fig_opts.apply(&mut fig, junctura::plot::StyleName::Classic);
+        written.extend(junctura::plot::write_figure(&fig, dir, "map")?);
     }
     Ok(written)
 }

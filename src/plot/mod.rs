@@ -77,6 +77,69 @@ impl Default for Look {
     }
 }
 
+/// Figure control given by the user (command-line options): each `Some` / `true` overrides what the figure
+/// would otherwise use. Applied to every figure a command writes.
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct FigureOptions {
+    /// Style.
+    pub style: Option<StyleName>,
+    /// Width in cm.
+    pub width_cm: Option<f64>,
+    /// Height / width.
+    pub aspect: Option<f64>,
+    /// Horizontal axis limits.
+    pub x_limits: Option<(f64, f64)>,
+    /// Vertical axis limits.
+    pub y_limits: Option<(f64, f64)>,
+    /// Logarithmic horizontal axis (not applied to maps).
+    pub log_x: bool,
+    /// Logarithmic vertical axis (not applied to maps).
+    pub log_y: bool,
+    /// Horizontal axis label.
+    pub x_label: Option<String>,
+    /// Vertical axis label.
+    pub y_label: Option<String>,
+    /// Legend position.
+    pub legend: Option<LegendPos>,
+}
+
+impl FigureOptions {
+    /// The look these options give, starting from `default_style`.
+    pub fn look(&self, default_style: StyleName) -> Look {
+        let d = Look::default();
+        Look {
+            style: self.style.unwrap_or(default_style),
+            width_cm: self.width_cm.unwrap_or(d.width_cm),
+            aspect: self.aspect.unwrap_or(d.aspect),
+            log_x: self.log_x,
+            log_y: self.log_y,
+            legend: self.legend.unwrap_or(d.legend),
+        }
+    }
+
+    /// Apply the options to `fig` (log axes only to figures without a category map).
+    pub fn apply(&self, fig: &mut Figure, default_style: StyleName) {
+        let mut look = self.look(default_style);
+        if fig.categories.is_some() {
+            look.log_x = false;
+            look.log_y = false;
+        }
+        fig.look = look;
+        if let Some(r) = self.x_limits {
+            fig.x_range = Some(r);
+        }
+        if let Some(r) = self.y_limits {
+            fig.y_range = Some(r);
+        }
+        if let Some(l) = &self.x_label {
+            fig.x_label = l.clone();
+        }
+        if let Some(l) = &self.y_label {
+            fig.y_label = l.clone();
+        }
+    }
+}
+
 /// The two looks.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
 pub enum StyleName {

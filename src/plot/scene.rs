@@ -479,7 +479,7 @@ fn build(
     let cols = cols.clamp(1, figs.len());
     let rows_n = figs.len().div_ceil(cols);
     let w = look.width_cm / 2.54 * 72.0;
-    let h = w * look.aspect * rows_n as f64 / cols as f64;
+    let mut h = w * look.aspect * rows_n as f64 / cols as f64;
     let fam = st.family;
     let (tasc, tdesc) = text::vertical(fam, st.tick_pt);
     let (lasc, ldesc) = text::vertical(fam, st.label_pt);
@@ -518,13 +518,15 @@ fn build(
     };
     let legend_h_above =
         if legend_above && !rows.is_empty() { rows.len().div_ceil(legend_cols) as f64 * row_h + pad } else { 0.0 };
+    // A legend above the plot adds to the canvas height, so the plot keeps its aspect.
+    h += legend_h_above;
     let has_ylabel = figs.iter().any(|f| !f.y_label.is_empty());
     let has_xlabel = figs.iter().any(|f| !f.x_label.is_empty());
     let left = pad + if has_ylabel { label_h + 3.0 } else { 0.0 } + ytick_w + 2.5 + out_len;
     let xlast = xt.last().map(|t| text::width(&t.label, fam, st.tick_pt) / 2.0).unwrap_or(0.0);
     let right = pad + xlast.max(3.0);
     let top = pad + 1.0 + top_title_h + legend_h_above + tasc * 0.5;
-    let notes_h = notes.len() as f64 * leg_h * 1.15;
+    let notes_h = notes.len() as f64 * leg_h * 1.15 + if notes.is_empty() { 0.0 } else { 1.5 };
     let bottom = pad + notes_h + if has_xlabel { label_h + 2.0 } else { 0.0 } + tick_h + 2.0 + out_len;
     let (gap_x, gap_y) = (6.0, 6.0 + panel_title_h);
     let pw = (w - left - right - (cols - 1) as f64 * gap_x) / cols as f64;
@@ -633,7 +635,7 @@ fn build(
     }
     // Notes at the bottom.
     for (k, n) in notes.iter().enumerate() {
-        let y = h - pad - notes_h + leg_h * 1.15 * k as f64 + gasc;
+        let y = h - pad - notes_h + 1.5 + leg_h * 1.15 * k as f64 + gasc;
         cx.text(n, st.legend_pt, (pad, y), Anchor::Start, TextKind::Note, (0x33, 0x33, 0x33));
     }
     // Legend.
@@ -804,7 +806,7 @@ fn annotations(cx: &mut Ctx, fig: &Figure, m: &Mapper) {
                 }
             }
         }
-        cx.annotate(&rl.label, &cands, &b, style::GREY);
+        cx.annotate(&rl.label, &cands, &b, (0x33, 0x33, 0x33));
     }
     for mk in fig.markers.iter().filter(|m| m.x.is_finite() && m.y.is_finite() && !m.label.is_empty()) {
         if mk.x < w.x0 || mk.x > w.x1 || mk.y < w.y0 || mk.y > w.y1 {

@@ -276,7 +276,7 @@ fn map_csv_prints_grid_values_exactly_and_names_its_columns_once() {
     assert!(!csv.contains("Fixed(") && !csv.contains("Axis"), "internal names in the comments");
     // beta2 grid: -0.5, -0.4, ..., 0.5 printed as such (no 0.30000000000000004).
     let ys: Vec<&str> = csv.lines().filter(|l| l.starts_with("0,")).map(|l| l.split(',').nth(3).unwrap()).collect();
-    assert_eq!(ys, ["-0.5", "-0.4", "-0.3", "-0.2", "-0.1", "0", "0.1", "0.2", "0.3", "0.4", "0.5"]);
+    assert_eq!(ys, ["-0.5", "-0.4", "-0.3", "-0.2", "-0.1", "0.0", "0.1", "0.2", "0.3", "0.4", "0.5"]);
 }
 
 #[test]

@@ -62,6 +62,8 @@ pub struct Look {
     pub log_y: bool,
     /// Where the legend goes.
     pub legend: LegendPos,
+    /// Fill opacity of bands (lower it where many bands overlap).
+    pub band_opacity: f64,
 }
 
 impl Default for Look {
@@ -73,6 +75,7 @@ impl Default for Look {
             log_x: false,
             log_y: false,
             legend: LegendPos::Auto,
+            band_opacity: 0.25,
         }
     }
 }
@@ -114,12 +117,13 @@ impl FigureOptions {
             log_x: self.log_x,
             log_y: self.log_y,
             legend: self.legend.unwrap_or(d.legend),
+            band_opacity: d.band_opacity,
         }
     }
 
     /// Apply the options to `fig` (log axes only to figures without a category map).
     pub fn apply(&self, fig: &mut Figure, default_style: StyleName) {
-        let mut look = self.look(default_style);
+        let mut look = Look { band_opacity: fig.look.band_opacity, ..self.look(default_style) };
         if fig.categories.is_some() {
             look.log_x = false;
             look.log_y = false;

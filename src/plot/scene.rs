@@ -129,8 +129,6 @@ pub(crate) struct Scene {
     pub layout: Layout,
 }
 
-/// Fill opacity of bands (legend swatches use the same).
-pub(crate) const BAND_OPACITY: f64 = 0.25;
 const BLACK: Rgb = (0, 0, 0);
 
 /// What a legend row shows beside its text.
@@ -420,7 +418,7 @@ impl Ctx {
 }
 
 /// Legend rows of all panels (first occurrence of each label).
-fn legend_rows(figs: &[Figure]) -> Vec<(String, Sample)> {
+fn legend_rows(figs: &[Figure], opacity: f64) -> Vec<(String, Sample)> {
     let mut rows: Vec<(String, Sample)> = Vec::new();
     let mut push = |label: &str, s: Sample| {
         if !label.is_empty() && !rows.iter().any(|r| r.0 == label) {
@@ -435,7 +433,7 @@ fn legend_rows(figs: &[Figure]) -> Vec<(String, Sample)> {
             let (label, colour) = match b {
                 Band::XInterval { label, colour, .. } | Band::Between { label, colour, .. } => (label, *colour),
             };
-            push(label, Sample::Swatch(style::colour(colour), BAND_OPACITY));
+            push(label, Sample::Swatch(style::colour(colour), opacity));
         }
         if let Some(m) = &fig.categories {
             for (idx, (name, colour)) in m.categories.iter().enumerate() {
@@ -491,7 +489,7 @@ fn build(
         ticks(windows[0].y0, windows[0].y1, ((h / rows_n as f64) / 30.0).round().clamp(3.0, 8.0) as usize, look.log_y);
     let ytick_w = yt.iter().map(|t| text::width(&t.label, fam, st.tick_pt)).fold(0.0, f64::max);
     let out_len = if st.ticks_inside { 0.0 } else { st.tick_len };
-    let rows = legend_rows(figs);
+    let rows = legend_rows(figs, look.band_opacity);
     let pad = 3.0;
     let (sample_w, gap, row_h) = (14.0, 3.0, leg_h * 1.25);
     let text_w = rows.iter().map(|r| text::width(&r.0, fam, st.legend_pt)).fold(0.0, f64::max);
@@ -556,7 +554,7 @@ fn build(
         let m = Mapper { w: windows[i], b };
         let (c, r) = (i % cols, i / cols);
         let last_row = r == rows_n - 1 || i + cols >= figs.len();
-        panel_data(&mut cx, fig, &m)?;
+        panel_data(&mut cx, fig, &m, look.band_opacity)?;
         // Frame and ticks.
         let frame = vec![(b.x0, b.y0), (b.x1, b.y0), (b.x1, b.y1), (b.x0, b.y1), (b.x0, b.y0)];
         cx.items.push(Item::Line { pts: frame, colour: BLACK, width: st.frame_pt, dash: vec![] });
@@ -720,7 +718,7 @@ fn marker(cx: &mut Ctx, c: (f64, f64), colour: usize, filled: bool) {
 }
 
 /// Map, bands, reference lines, curves and markers of one panel.
-fn panel_data(cx: &mut Ctx, fig: &Figure, m: &Mapper) -> Result<()> {
+fn panel_data(cx: &mut Ctx, fig: &Figure, m: &Mapper, opacity: f64) -> Result<()> {
     let w = m.w;
     let b = m.b;
     if let Some(cm) = &fig.categories {
@@ -732,7 +730,7 @@ fn panel_data(cx: &mut Ctx, fig: &Figure, m: &Mapper) -> Result<()> {
         let (pieces, colour) = band_polygons(band, &w);
         for poly in pieces {
             let pts = poly.iter().map(|&p| m.px(p)).collect();
-            cx.items.push(Item::Fill { pts, colour: style::colour(colour), opacity: BAND_OPACITY });
+            cx.items.push(Item::Fill { pts, colour: style::colour(colour), opacity });
         }
     }
     for rl in fig.ref_lines.iter().filter(|r| r.at.is_finite()) {

@@ -148,7 +148,7 @@ fn family_part(
         let spec = MapSpec::new(&sc, x, y, None, (flo, fhi))?;
         let cells: Vec<crate::scan::Cell> = evaluate_lines(&sc, &spec, 0..spec.n_lines())?.concat();
         let mut fig = figures::map_figure_with(sc.provenance(), &spec, &cells, None, &sc.symbols);
-        fig.title = Some(format!("{sym} = {}", crate::export::num(v)));
+        fig.title = Some(format!("{sym} = {v}"));
         panels.push(fig);
     }
     let cols = if panels.len() <= 1 { 1 } else { 2 };
@@ -336,11 +336,9 @@ fn timelike_part(s: &Scenario, opts: &ReportOptions, out: &mut Listing) -> Resul
                 &format!("branches of static radii as {name} varies"),
             )?;
             out.put("sweep.json", serde_json::to_string_pretty(&sw).unwrap_or_default().as_bytes(), "branches (JSON)")?;
-            out.figure(
-                &figures::sweep_figure(&sw),
-                "sweep",
-                "static branches: stable solid, unstable dashed, folds marked",
-            )?;
+            let mut fig = figures::sweep_figure(&sw);
+            fig.x_label = s.symbols.unicode(name);
+            out.figure(&fig, "sweep", "static branches: stable solid, unstable dashed, folds marked")?;
         }
     }
     Ok(())

@@ -470,9 +470,10 @@ pub fn sigma_pressure_figure_with(s: &Scenario, lo: f64, hi: f64, ov: Option<&Ov
 }
 
 /// Static branches of a sweep: radius against the parameter, stable parts solid, unstable dashed, folds
-/// marked. Where the stability changes between two samples, both runs end at the fold between them (or, if
-/// no fold lies there, at the midpoint), so the fold tip is not drawn in either class. The window is padded
-/// so that no marker sits on the frame; the legend names only the classes drawn.
+/// marked. The curve is the continuation's own polyline (steps in pseudo-arclength, so it is dense where the
+/// branch turns), cut at its turning points in the parameter; each piece takes the stability of the branch
+/// points nearest to its inner half, so a fold tip is never drawn in one class across the turn. The window
+/// is padded so that no marker sits on the frame; the legend names only the classes drawn.
 pub fn sweep_figure(rep: &SweepReport) -> Figure {
     let mut series = Vec::new();
     let mut markers = Vec::new();
@@ -490,27 +491,6 @@ pub fn sweep_figure(rep: &SweepReport) -> Figure {
         }
     };
     for b in &rep.branches {
-        let mut run: Vec<(f64, f64)> = Vec::new();
-        let mut cur: Option<Stability> = None;
-        for (k, p) in b.points.iter().enumerate() {
-            if cur.is_some() && cur != Some(p.stability) {
-                let q = &b.points[k - 1];
-                // The fold between q and p, if any: its radius lies between theirs.
-                let (r0, r1) = (q.radius.min(p.radius), q.radius.max(p.radius));
-                let split = b
-                    .folds
-                    .iter()
-                    .find(|f| f.radius >= r0 && f.radius <= r1)
-                    .map(|f| (f.value, f.radius))
-                    .unwrap_or((0.5 * (q.value + p.value), 0.5 * (q.radius + p.radius)));
-                run.push(split);
-                push(std::mem::take(&mut run), cur, &mut series, &mut present);
-                run.push(split);
-            }
-            cur = Some(p.stability);
-            run.push((p.value, p.radius));
-        }
-        push(run, cur, &mut series, &mut present);
         for f in &b.folds {
             markers.push(Marker {
                 x: f.value,
@@ -519,6 +499,41 @@ pub fn sweep_figure(rep: &SweepReport) -> Figure {
                 filled: true,
                 colour: colour::MARGINAL,
             });
+        }
+        if b.curve.len() < 2 || b.points.is_empty() {
+            continue;
+        }
+        // Pieces of the traced curve between its turning points in the parameter (the folds); each piece has
+        // one stability, that of the reported branch points nearest to its inner part.
+        let c = &b.curve;
+        let mut cuts = vec![0usize];
+        for k in 1..c.len() - 1 {
+            if (c[k].0 - c[k - 1].0) * (c[k + 1].0 - c[k].0) < 0.0 {
+                cuts.push(k);
+            }
+        }
+        cuts.push(c.len() - 1);
+        let (vs, rs) = (
+            (rep.values.last().copied().unwrap_or(1.0) - rep.values.first().copied().unwrap_or(0.0)).abs().max(1e-300),
+            b.points.iter().map(|p| p.radius).fold(0.0f64, f64::max).max(1e-300),
+        );
+        let nearest = |q: (f64, f64)| {
+            b.points
+                .iter()
+                .min_by(|x, y| {
+                    let d = |p: &crate::statics::sweep::BranchPoint| {
+                        ((p.value - q.0) / vs).powi(2) + ((p.radius - q.1) / rs).powi(2)
+                    };
+                    d(x).total_cmp(&d(y))
+                })
+                .map(|p| p.stability)
+        };
+        for w in cuts.windows(2) {
+            let piece: Vec<(f64, f64)> = c[w[0]..=w[1]].to_vec();
+            let inner = &piece[piece.len() / 4..(3 * piece.len() / 4).max(piece.len() / 4 + 1)];
+            let stable = inner.iter().filter(|&&q| nearest(q) == Some(Stability::Stable)).count();
+            let st = if 2 * stable > inner.len() { Stability::Stable } else { Stability::Unstable };
+            push(piece, Some(st), &mut series, &mut present);
         }
     }
     if present[0] {
@@ -532,8 +547,8 @@ pub fn sweep_figure(rep: &SweepReport) -> Figure {
             colour: colour::UNSTABLE,
         });
     }
-    let xs = rep.branches.iter().flat_map(|b| b.points.iter().map(|p| p.value));
-    let ys = rep.branches.iter().flat_map(|b| b.points.iter().map(|p| p.radius));
+    let xs = rep.branches.iter().flat_map(|b| b.points.iter().map(|p| p.value).chain(b.curve.iter().map(|p| p.0)));
+    let ys = rep.branches.iter().flat_map(|b| b.points.iter().map(|p| p.radius).chain(b.curve.iter().map(|p| p.1)));
     let span = |it: &mut dyn Iterator<Item = f64>, pad: f64| {
         let (lo, hi) =
             it.filter(|v| v.is_finite()).fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| (a.min(v), b.max(v)));
@@ -648,6 +663,7 @@ pub fn family_figures(
         values.iter().map(|v| crate::export::num(*v)).collect::<Vec<_>>().join(", ")
     );
     let crit = Figure {
+        look: crate::plot::Look { band_opacity: (0.4 / values.len() as f64).clamp(0.08, 0.25), ..Default::default() },
         x_label: "a₀/M".into(),
         y_label: "β²".into(),
         x_range: Some((lo, hi)),

@@ -47,6 +47,10 @@ pub struct Branch {
     pub points: Vec<BranchPoint>,
     /// Folds along the branch.
     pub folds: Vec<Fold>,
+    /// The traced curve as (parameter value, radius), in order along the branch: the pseudo-arclength
+    /// continuation steps, so it is dense where the branch turns (folds). For figures; not in the JSON.
+    #[serde(skip)]
+    pub curve: Vec<(f64, f64)>,
 }
 
 /// Result of a sweep.
@@ -337,7 +341,14 @@ pub fn sweep_with_progress(
                 f.radius
             ));
         }
-        branches.push(Branch { id: branches.len() + 1, points, folds });
+        let span = l_hi - l_lo;
+        let curve: Vec<(f64, f64)> = poly
+            .iter()
+            .map(|x| c.point_of(*x))
+            .filter(|&(a, l)| a.is_finite() && l >= l_lo - 1e-9 * span && l <= l_hi + 1e-9 * span)
+            .map(|(a, l)| (l, a))
+            .collect();
+        branches.push(Branch { id: branches.len() + 1, points, folds, curve });
     }
     Ok(SweepReport {
         scenario: s.name.clone(),

@@ -265,7 +265,7 @@ struct Tick {
 /// Ticks at 1, 2, 2.5 or 5 times a power of ten, about `target` of them (common practice).
 fn linear_ticks(lo: f64, hi: f64, target: usize) -> Vec<Tick> {
     let span = hi - lo;
-    if !(span > 0.0) {
+    if span.is_nan() || span <= 0.0 {
         return vec![];
     }
     let raw = span / target.max(2) as f64;

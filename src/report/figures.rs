@@ -339,7 +339,7 @@ fn clipped_at(points: &[(f64, f64)], (y0, y1): (f64, f64)) -> Vec<f64> {
     let mut best: Option<(f64, f64)> = None;
     for p in points {
         if p.1.is_finite() && (p.1 < y0 || p.1 > y1) {
-            if best.is_none_or(|b| p.1.abs() > b.1) {
+            if best.map_or(true, |b| p.1.abs() > b.1) {
                 best = Some((p.0, p.1.abs()));
             }
         } else if let Some(b) = best.take() {
@@ -676,8 +676,19 @@ pub fn family_figures(
         provenance: prov.clone(),
         ..Figure::default()
     };
-    let sig_range = robust(&sig, 3, 97);
+    // sigma0 stays finite (it goes to zero at a horizon): show all of it; p0 diverges there: cut and say so.
+    let sig_range = robust(&sig, 0, 100);
     let pre_range = robust(&pre, 3, 97);
+    let mut pre_notes = Vec::new();
+    if let Some(r) = pre_range {
+        let mut at: Vec<f64> = pre.iter().flat_map(|s| clipped_at(&s.points, r)).collect();
+        at.sort_by(|a, b| a.total_cmp(b));
+        at.dedup_by(|a, b| (*a - *b).abs() < 0.05 * (hi - lo));
+        if !at.is_empty() {
+            let list: Vec<String> = at.iter().take(4).map(|a| crate::export::num(round_to(*a, 3))).collect();
+            pre_notes.push(format!("p₀ diverges towards the horizons and is clipped near a = {}.", list.join(", ")));
+        }
+    }
     let sigma = Figure {
         x_label: "a/M".into(),
         y_label: "σ₀ (units of 1/M)".into(),
@@ -693,6 +704,7 @@ pub fn family_figures(
         x_range: Some((lo, hi)),
         y_range: pre_range,
         series: pre,
+        notes: pre_notes,
         provenance: prov,
         ..Figure::default()
     };

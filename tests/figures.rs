@@ -312,3 +312,39 @@ fn parameter_map_provenance_names_the_axis_range_and_every_root() {
     }
     let _ = Path::new(".");
 }
+
+/// Regression: `report` searched static radii only up to r = 12 M and missed what `statics` finds. For the
+/// Schwarzschild thin-shell wormhole with p = w sigma the static radius follows from sigma0 = -sqrt(f)/(2 pi a),
+/// p0 = (1 - M/a)/(4 pi a sqrt(f)) (Poisson & Visser 1995): p0/sigma0 = -(a - M)/(2(a - 2M)) = w, so
+/// a0 = M (1 + 4w)/(1 + 2w); w = -0.5373 puts it at 15.40 M. With w = 0.5 it would be 1.5 M, inside the horizon:
+/// no static radius, and summary.md must say so.
+#[test]
+fn report_finds_far_static_radii_and_says_when_there_are_none() {
+    let dir = tempfile::tempdir().unwrap();
+    let run = |w: &str, out: &Path| {
+        let o = Command::new(env!("CARGO_BIN_EXE_junctura"))
+            .arg("report")
+            .arg(root().join("scenarios/schwarzschild-wormhole-linear.toml"))
+            .args(["--set", &format!("w={w}"), "--out"])
+            .arg(out)
+            .output()
+            .unwrap();
+        assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
+    };
+    let far = dir.path().join("far");
+    run("-0.5373", &far);
+    let w = -0.5373f64;
+    let want = (1.0 + 4.0 * w) / (1.0 + 2.0 * w);
+    let csv = std::fs::read_to_string(far.join("statics.csv")).unwrap();
+    let found: Vec<f64> = csv
+        .lines()
+        .filter(|l| !l.starts_with('#') && !l.starts_with("radius"))
+        .filter_map(|l| l.split(',').next()?.parse().ok())
+        .collect();
+    assert!(found.iter().any(|a| (a - want).abs() < 1e-6 * want), "a0 = {want} not in {found:?}");
+    assert!(far.join("potential.png").exists());
+    let none = dir.path().join("none");
+    run("0.5", &none);
+    let md = std::fs::read_to_string(none.join("summary.md")).unwrap();
+    assert!(md.contains("no static radius was found"), "{md}");
+}

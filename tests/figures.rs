@@ -348,3 +348,79 @@ fn report_finds_far_static_radii_and_says_when_there_are_none() {
     let md = std::fs::read_to_string(none.join("summary.md")).unwrap();
     assert!(md.contains("no static radius was found"), "{md}");
 }
+
+/// Regressions of the sweep figure: the fold tip was drawn as a vertical segment in one class, the fold marker
+/// sat half outside the frame, and the legend named "stable" with no stable branch drawn.
+#[test]
+fn sweep_pieces_meet_at_the_fold_and_the_legend_names_only_drawn_classes() {
+    let all = all_figures();
+    let f = &all.iter().find(|(n, _)| n == "sweep").unwrap().1;
+    let fold = f.markers.first().expect("the gravastar sweep has a fold (Visser & Wiltshire 2004 two-radius case)");
+    let (x0, x1) = f.x_range.unwrap();
+    let (y0, y1) = f.y_range.unwrap();
+    assert!(fold.x > x0 && fold.x < x1 && fold.y > y0 && fold.y < y1, "fold marker on or outside the frame");
+    let drawn: Vec<_> = f.series.iter().filter(|s| s.points.len() > 1).collect();
+    let stable: Vec<_> = drawn.iter().filter(|s| s.style == junctura::plot::LineStyle::Solid).collect();
+    let unstable: Vec<_> = drawn.iter().filter(|s| s.style != junctura::plot::LineStyle::Solid).collect();
+    assert!(!stable.is_empty() && !unstable.is_empty());
+    // A stable and an unstable piece end where the parameter turns (the fold), within the marker's precision.
+    let ends = |s: &junctura::plot::Series| [s.points[0], *s.points.last().unwrap()];
+    let near = |p: (f64, f64)| ((p.0 - fold.x) / (x1 - x0)).abs() < 2e-3 && ((p.1 - fold.y) / (y1 - y0)).abs() < 2e-3;
+    assert!(stable.iter().any(|s| ends(s).iter().any(|&p| near(p))), "no stable piece ends at the fold");
+    assert!(unstable.iter().any(|s| ends(s).iter().any(|&p| near(p))), "no unstable piece ends at the fold");
+    // Dense near the fold: the last step into it is short compared with the branch.
+    for s in &drawn {
+        for w in s.points.windows(2) {
+            let d = (((w[1].0 - w[0].0) / (x1 - x0)).powi(2) + ((w[1].1 - w[0].1) / (y1 - y0)).powi(2)).sqrt();
+            assert!(d < 0.06, "coarse step {d} between {:?} and {:?}", w[0], w[1]);
+        }
+    }
+    // Only unstable points: no "stable" legend row.
+    let mut rep = junctura::statics::sweep::SweepReport {
+        scenario: "t".into(),
+        provenance: "t".into(),
+        parameter: "w".into(),
+        values: vec![0.0, 1.0],
+        radius_range: [2.0, 4.0],
+        branches: vec![],
+        notes: vec![],
+    };
+    let pt = |v: f64, r: f64| junctura::statics::sweep::BranchPoint {
+        value: v,
+        radius: r,
+        potential_second_derivative: -1.0,
+        stability: junctura::statics::Stability::Unstable,
+    };
+    rep.branches.push(junctura::statics::sweep::Branch {
+        id: 1,
+        points: vec![pt(0.0, 3.0), pt(1.0, 3.5)],
+        folds: vec![],
+        curve: vec![(0.0, 3.0), (0.5, 3.25), (1.0, 3.5)],
+    });
+    let f = figures::sweep_figure(&rep);
+    let labels: Vec<&str> = f.series.iter().map(|s| s.label.as_str()).filter(|l| !l.is_empty()).collect();
+    assert_eq!(labels, ["unstable"]);
+}
+
+/// Regression: the potential's point labels overlapped the curves and repeated the legend, and a symmetric
+/// vertical range left a third of the plot empty.
+#[test]
+fn potential_has_no_point_labels_and_fills_its_range() {
+    let all = all_figures();
+    let f = &all.iter().find(|(n, _)| n == "potential").unwrap().1;
+    assert!(f.markers.iter().all(|m| m.label.is_empty()));
+    let (y0, y1) = f.y_range.unwrap();
+    assert!(y0 < 0.0 && y1 > 0.0, "V = 0 must be shown");
+    let (x0, x1) = f.x_range.unwrap();
+    let vals: Vec<f64> = f
+        .series
+        .iter()
+        .flat_map(|s| s.points.iter().filter(|p| p.0 >= x0 && p.0 <= x1 && p.1.is_finite()).map(|p| p.1.clamp(y0, y1)))
+        .collect();
+    let (lo, hi) = vals.iter().fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), &v| (a.min(v), b.max(v)));
+    assert!(
+        (hi - lo) / (y1 - y0) > 0.8,
+        "curves fill only {:.0} % of the vertical range",
+        100.0 * (hi - lo) / (y1 - y0)
+    );
+}

@@ -528,8 +528,28 @@ pub fn sweep_figure(rep: &SweepReport) -> Figure {
                 })
                 .map(|p| p.stability)
         };
-        for w in cuts.windows(2) {
-            let piece: Vec<(f64, f64)> = c[w[0]..=w[1]].to_vec();
+        // At each turn the pieces meet at the fold the sweep located (refined beyond the polyline's steps).
+        let fold_at = |k: usize| -> (f64, f64) {
+            b.folds
+                .iter()
+                .map(|f| (f.value, f.radius))
+                .min_by(|p, q| {
+                    let d = |x: &(f64, f64)| ((x.0 - c[k].0) / vs).powi(2) + ((x.1 - c[k].1) / rs).powi(2);
+                    d(p).total_cmp(&d(q))
+                })
+                .filter(|f| ((f.0 - c[k].0) / vs).abs() < 0.05 && ((f.1 - c[k].1) / rs).abs() < 0.05)
+                .unwrap_or(c[k])
+        };
+        let last = cuts.len() - 1;
+        for (i, w) in cuts.windows(2).enumerate() {
+            let mut piece: Vec<(f64, f64)> = c[w[0]..=w[1]].to_vec();
+            if i > 0 {
+                piece[0] = fold_at(w[0]);
+            }
+            if i + 1 < last {
+                let n = piece.len();
+                piece[n - 1] = fold_at(w[1]);
+            }
             let inner = &piece[piece.len() / 4..(3 * piece.len() / 4).max(piece.len() / 4 + 1)];
             let stable = inner.iter().filter(|&&q| nearest(q) == Some(Stability::Stable)).count();
             let st = if 2 * stable > inner.len() { Stability::Stable } else { Stability::Unstable };

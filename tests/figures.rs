@@ -424,3 +424,44 @@ fn potential_has_no_point_labels_and_fills_its_range() {
         100.0 * (hi - lo) / (y1 - y0)
     );
 }
+
+#[test]
+fn figure_options_set_size_limits_labels_and_log_axes() {
+    use junctura::plot::{FigureOptions, LegendPos, LineStyle, Series};
+    // y = 10^-x: a straight line on a log axis.
+    let pts: Vec<(f64, f64)> = (0..50).map(|i| (i as f64 / 10.0, 10f64.powf(-(i as f64) / 10.0))).collect();
+    let mut f = Figure {
+        x_label: "x".into(),
+        y_label: "y".into(),
+        series: vec![Series { label: "10⁻ˣ".into(), points: pts, style: LineStyle::Solid, colour: 0 }],
+        provenance: "options test".into(),
+        ..Figure::default()
+    };
+    let opts = FigureOptions {
+        width_cm: Some(17.8),
+        aspect: Some(0.5),
+        x_limits: Some((0.0, 4.0)),
+        log_y: true,
+        y_label: Some("y (log scale)".into()),
+        legend: Some(LegendPos::LowerLeft),
+        ..FigureOptions::default()
+    };
+    opts.apply(&mut f, StyleName::Journal);
+    let l = layout(&f).unwrap();
+    // 17.8 cm = 504.57 pt; aspect 0.5.
+    assert!((l.canvas.0 - 504.57).abs() < 0.01 && (l.canvas.1 - 0.5 * l.canvas.0).abs() < 0.01, "{:?}", l.canvas);
+    let ticks: Vec<&str> = l.texts.iter().filter(|t| t.kind == TextKind::Tick).map(|t| t.text.as_str()).collect();
+    for want in ["10⁻⁴", "10⁻¹", "10⁰", "4"] {
+        assert!(ticks.contains(&want), "no tick {want:?} in {ticks:?}");
+    }
+    assert!(l.texts.iter().any(|t| t.kind == TextKind::AxisLabel && t.text == "y (log scale)"));
+    // Lower-left legend: its box is in the lower left quarter of the plot.
+    let (p, lb) = (l.plots[0], l.legend.unwrap());
+    assert!(lb.x0 < 0.5 * (p.x0 + p.x1) && lb.y1 > 0.5 * (p.y0 + p.y1));
+    check_layout("options", &l);
+    // The line is straight in the drawn coordinates (log axis): the midpoint lies on the chord.
+    let line = &l.data_lines[0];
+    let (a, b, m) = (line[0], line[line.len() - 1], line[line.len() / 2]);
+    let t = (m.0 - a.0) / (b.0 - a.0);
+    assert!((a.1 + t * (b.1 - a.1) - m.1).abs() < 0.5, "not straight on the log axis");
+}

@@ -171,7 +171,10 @@ pub(crate) fn scene_grid(figs: &[Figure], cols: usize, look: &Look, title: Optio
         windows = vec![u; figs.len()];
     }
     let single_auto = figs.len() == 1 && look.legend == LegendPos::Auto;
-    let first = build(&figs, &windows, cols, look, title, figs.len() > 1 || look.legend == LegendPos::Above)?;
+    // A legend inside a category map would hide cells: maps put it above unless told otherwise.
+    let map_auto = look.legend == LegendPos::Auto && figs.iter().any(|f| f.categories.is_some());
+    let first =
+        build(&figs, &windows, cols, look, title, figs.len() > 1 || look.legend == LegendPos::Above || map_auto)?;
     if single_auto && first.1 {
         // The legend would cover data inside the plot: put it above instead.
         return Ok(build(&figs, &windows, cols, look, title, true)?.0);

@@ -145,7 +145,7 @@ fn add_vertical_overlays(fig: &mut Figure, ov: &Overlays) {
 /// Which root a map cell's class refers to, in words.
 pub fn root_rule_text(rule: crate::scan::RootRule) -> &'static str {
     match rule {
-        crate::scan::RootRule::AnyStable => "the stable one if any (else marginal, else the smallest)",
+        crate::scan::RootRule::AnyStable => "the stable one if any, else a marginal one, else the smallest",
         crate::scan::RootRule::Smallest => "the smallest",
         crate::scan::RootRule::Largest => "the largest",
     }
@@ -256,7 +256,7 @@ pub fn map_figure_with(
     };
     if several {
         fig.notes.push(format!(
-            "Cells with several static radii show the class of {} (map.csv lists every radius).",
+            "Cells with several static radii take the class of {}; map.csv lists every radius.",
             root_rule_text(spec.root_rule)
         ));
     }

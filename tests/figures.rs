@@ -61,6 +61,12 @@ fn check_layout(name: &str, l: &Layout) {
             assert!(!t.bbox.hits(line), "{name}: a data line crosses the text {:?} ({:?})", t.text, t.kind);
         }
     }
+    // A label left out for lack of room is named in a note.
+    let notes: String =
+        l.texts.iter().filter(|t| t.kind == TextKind::Note).map(|t| t.text.as_str()).collect::<Vec<_>>().join(" ");
+    for d in &l.dropped {
+        assert!(notes.contains(d.as_str()), "{name}: label {d:?} dropped without a note ({notes:?})");
+    }
     if let Some(lb) = l.legend {
         for line in &l.data_lines {
             assert!(!lb.hits(line), "{name}: a data line crosses the legend");

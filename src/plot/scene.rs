@@ -173,13 +173,33 @@ pub(crate) fn scene_grid(figs: &[Figure], cols: usize, look: &Look, title: Optio
     let single_auto = figs.len() == 1 && look.legend == LegendPos::Auto;
     // A legend inside a category map would hide cells: maps put it above unless told otherwise.
     let map_auto = look.legend == LegendPos::Auto && figs.iter().any(|f| f.categories.is_some());
-    let first =
-        build(&figs, &windows, cols, look, title, figs.len() > 1 || look.legend == LegendPos::Above || map_auto)?;
-    if single_auto && first.1 {
-        // The legend would cover data inside the plot: put it above instead.
-        return Ok(build(&figs, &windows, cols, look, title, true)?.0);
+    let layout_once = |figs: &[Figure]| -> Result<Scene> {
+        let first =
+            build(figs, &windows, cols, look, title, figs.len() > 1 || look.legend == LegendPos::Above || map_auto)?;
+        if single_auto && first.1 {
+            // The legend would cover data inside the plot: put it above instead.
+            return Ok(build(figs, &windows, cols, look, title, true)?.0);
+        }
+        Ok(first.0)
+    };
+    // A label that found no free place is named in a note under the plot rather than lost.
+    let mut sc = layout_once(&figs)?;
+    for _ in 0..2 {
+        if sc.layout.dropped.is_empty() {
+            break;
+        }
+        let mut names = sc.layout.dropped.clone();
+        names.dedup();
+        let mut with_note = figs.clone();
+        with_note[0].notes.push(format!("Not labelled for lack of room: {}.", names.join(", ")));
+        let next = layout_once(&with_note)?;
+        let settled = next.layout.dropped == sc.layout.dropped;
+        sc = next;
+        if settled {
+            break;
+        }
     }
-    Ok(first.0)
+    Ok(sc)
 }
 
 /// The figure with log axes applied to its data (log10 of the coordinates).

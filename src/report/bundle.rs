@@ -63,7 +63,17 @@ impl Listing {
     fn figure(&mut self, fig: &crate::plot::Figure, stem: &str, what: &str) -> Result<()> {
         let mut fig = fig.clone();
         self.figure.apply(&mut fig, StyleName::Journal);
-        for p in write_figure(&fig, &self.dir, stem)? {
+        let paths = match write_figure(&fig, &self.dir, stem) {
+            // A log axis asked for every figure cannot show one with values <= 0: draw that one linear.
+            Err(e) if e.kind == crate::error::ErrorKind::Input && (fig.look.log_x || fig.look.log_y) => {
+                self.notes.push(format!("{stem}: {}; drawn with linear axes instead.", e.message));
+                fig.look.log_x = false;
+                fig.look.log_y = false;
+                write_figure(&fig, &self.dir, stem)?
+            }
+            r => r?,
+        };
+        for p in paths {
             self.files.push((p, what.to_string()));
         }
         Ok(())

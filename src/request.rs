@@ -32,22 +32,9 @@ pub struct AxisSpec {
 }
 
 impl AxisSpec {
-    /// The grid values.
+    /// The grid values ([`crate::scan::grid_value`]).
     pub fn values(&self) -> Vec<f64> {
-        if self.n == 1 {
-            return vec![self.lo];
-        }
-        (0..self.n)
-            .map(
-                |i| {
-                    if i + 1 == self.n {
-                        self.hi
-                    } else {
-                        self.lo + (self.hi - self.lo) * i as f64 / (self.n - 1) as f64
-                    }
-                },
-            )
-            .collect()
+        (0..self.n).map(|i| crate::scan::grid_value(self.lo, self.hi, i, self.n)).collect()
     }
 }
 

@@ -44,6 +44,7 @@ pub fn demo_figure() -> Figure {
         ref_lines: vec![RefLine::vertical(2.0, "r₊"), RefLine::horizontal(0.0, "V = 0")],
         categories: None,
         provenance: PROVENANCE.into(),
+        ..Figure::default()
     }
 }
 
@@ -153,7 +154,7 @@ fn nan_breaks_the_line_and_empty_series_are_fine() {
     };
     // Paths stroked in palette colour 1, vermillion #D55E00 (Okabe & Ito 2008).
     let count = |svg: &str| {
-        svg.split("<polyline").skip(1).filter(|el| el.split("/>").next().unwrap_or("").contains("#D55E00")).count()
+        svg.split("<path").skip(1).filter(|el| el.split("/>").next().unwrap_or("").contains("#d55e00")).count()
     };
     let whole = render_svg(&base(0.5)).unwrap();
     let gapped = render_svg(&base(f64::NAN)).unwrap();

@@ -201,7 +201,7 @@ class Scenario:
         """Integrate the nonlinear motion from the static radius ``radius``: at rest at ``radius + kick``, or
         at ``radius`` with dR/dtau = ``velocity``; ``ensemble=(n, spread)`` adds n kicks in [-spread, spread].
         ``samples`` is the time series (columns ``tau``, ``radius``, ``rdot``, ``sigma``, ``pressure``,
-        ``constraint`` as arrays). Figures: ``evolve_radius``, ``evolve_phase``."""
+        ``constraint`` as arrays; ``n_r`` has two columns, the radial normal component on the minus and plus side). Figures: ``evolve_radius``, ``evolve_phase``."""
         ens = None if ensemble is None else (int(ensemble[0]), float(ensemble[1]))
         raw = self._m.evolve(float(radius), float(duration), kick, velocity, int(max_turns), ens)
         return Result("EvolveResult", raw["result"], raw["figures"], {"samples": raw["samples"]})

@@ -130,6 +130,6 @@ def test_evolve_time_series_matches_the_cli_csv(cli):
     ev = junctura.Scenario.load(p).evolve(3.063772328317274, 50.0, kick=0.01)
     s = ev.samples
     assert len(s) == len(rows) > 10
-    got = np.column_stack([s.tau, s.radius, s.rdot, s.sigma, s.pressure, s.constraint])
+    got = np.column_stack([s.tau, s.radius, s.rdot, s.sigma, s.pressure, s.constraint, s.n_r])
     assert got.dtype == np.float64
     assert np.array_equal(got, np.array(rows, dtype=float))

@@ -61,3 +61,111 @@ impl RangeArgs {
 pub fn to_json<T: serde::Serialize>(v: &T) -> String {
     serde_json::to_string_pretty(v).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"))
 }
+
+/// Figure control shared by the commands that write figures.
+#[derive(Args, Debug, Clone, Default)]
+pub struct FigureArgs {
+    /// Look of the figures: journal (serif STIX text, ticks inside on all sides) or classic (sans-serif).
+    #[arg(long)]
+    pub style: Option<String>,
+    /// Figure width: column (8.5 cm), page (17.8 cm) or a number of cm.
+    #[arg(long)]
+    pub width: Option<String>,
+    /// Height / width of the figure (default 0.75).
+    #[arg(long)]
+    pub aspect: Option<f64>,
+    /// Horizontal axis limits LO:HI.
+    #[arg(long, allow_hyphen_values = true)]
+    pub xlim: Option<String>,
+    /// Vertical axis limits LO:HI.
+    #[arg(long, allow_hyphen_values = true)]
+    pub ylim: Option<String>,
+    /// Logarithmic horizontal axis (curves only; maps stay linear).
+    #[arg(long)]
+    pub log_x: bool,
+    /// Logarithmic vertical axis (curves only).
+    #[arg(long)]
+    pub log_y: bool,
+    /// Horizontal axis label (replaces the default).
+    #[arg(long)]
+    pub xlabel: Option<String>,
+    /// Vertical axis label.
+    #[arg(long)]
+    pub ylabel: Option<String>,
+    /// Legend position: auto, upper-right, upper-left, lower-right, lower-left, above or none.
+    #[arg(long)]
+    pub legend: Option<String>,
+}
+
+impl FigureArgs {
+    /// The checked options.
+    pub fn options(&self) -> Result<junctura::plot::FigureOptions> {
+        use junctura::plot::{FigureOptions, LegendPos, StyleName};
+        let style = match &self.style {
+            None => None,
+            Some(s) => Some(StyleName::parse(s).ok_or_else(|| {
+                junctura::Error::input(format!("--style {s}: unknown style")).with_hint("use journal or classic")
+            })?),
+        };
+        let width_cm = match self.width.as_deref() {
+            None => None,
+            Some("column") => Some(8.5),
+            Some("page") => Some(17.8),
+            Some(w) => {
+                let v: f64 = w.trim_end_matches("cm").parse().map_err(|_| {
+                    junctura::Error::input(format!("--width {w}: not column, page or a number of cm"))
+                        .with_hint("e.g. --width column, --width page or --width 12")
+                })?;
+                if !(3.0..=60.0).contains(&v) {
+                    return Err(junctura::Error::input(format!("--width {w}: outside 3..60 cm")));
+                }
+                Some(v)
+            }
+        };
+        if let Some(a) = self.aspect {
+            if !(0.2..=3.0).contains(&a) {
+                return Err(junctura::Error::input(format!("--aspect {a}: outside 0.2..3 (height / width)")));
+            }
+        }
+        let legend = match &self.legend {
+            None => None,
+            Some(s) => Some(LegendPos::parse(s).ok_or_else(|| {
+                junctura::Error::input(format!("--legend {s}: unknown position"))
+                    .with_hint("auto, upper-right, upper-left, lower-right, lower-left, above or none")
+            })?),
+        };
+        Ok(FigureOptions {
+            style,
+            width_cm,
+            aspect: self.aspect,
+            x_limits: self.xlim.as_deref().map(|s| parse_pair("--xlim", s)).transpose()?,
+            y_limits: self.ylim.as_deref().map(|s| parse_pair("--ylim", s)).transpose()?,
+            log_x: self.log_x,
+            log_y: self.log_y,
+            x_label: self.xlabel.clone(),
+            y_label: self.ylabel.clone(),
+            legend,
+        })
+    }
+}
+
+/// Parse `NAME=v1,v2,...` (a family of parameter values).
+pub fn parse_family(spec: &str) -> Result<(String, Vec<f64>)> {
+    let bad = |why: &str| {
+        junctura::Error::input(format!("--family {spec}: {why}"))
+            .with_hint("write --family NAME=v1,v2,..., e.g. --family q=0,0.3,0.6,0.9")
+    };
+    let (name, vals) = spec.split_once('=').ok_or_else(|| bad("expected NAME=v1,v2,..."))?;
+    let mut out = Vec::new();
+    for v in vals.split(',') {
+        let x: f64 = v.trim().parse().map_err(|_| bad(&format!("'{v}' is not a number")))?;
+        if !x.is_finite() {
+            return Err(bad(&format!("'{v}' is not finite")));
+        }
+        out.push(x);
+    }
+    if out.is_empty() || out.len() > 8 {
+        return Err(bad("give 1 to 8 values"));
+    }
+    Ok((name.trim().to_string(), out))
+}

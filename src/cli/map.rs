@@ -36,6 +36,12 @@ pub struct MapArgs {
     /// Compute only shard K of N (K = 1..N) and write a part file (needs --out); join parts with `merge`.
     #[arg(long)]
     shard: Option<String>,
+    /// Maps over two parameters: which static radius gives a cell its class when there are several:
+    /// any-stable (the stable one if any; default), smallest or largest. map.csv lists every radius.
+    #[arg(long, default_value = "any-stable")]
+    root_rule: String,
+    #[command(flatten)]
+    figure: super::common::FigureArgs,
 }
 
 fn parse_shard(s: &str) -> Result<(usize, usize)> {
@@ -50,7 +56,12 @@ fn parse_shard(s: &str) -> Result<(usize, usize)> {
 }
 
 fn build_spec(s: &Scenario, a: &MapArgs) -> Result<MapSpec> {
-    map_spec(s, &a.x, &a.y, a.beta2, a.range.from, a.range.to)
+    let mut spec = map_spec(s, &a.x, &a.y, a.beta2, a.range.from, a.range.to)?;
+    spec.root_rule = junctura::scan::RootRule::parse(&a.root_rule).ok_or_else(|| {
+        Error::input(format!("--root-rule {}: unknown rule", a.root_rule))
+            .with_hint("use any-stable, smallest or largest")
+    })?;
+    Ok(spec)
 }
 
 pub fn run(a: MapArgs) -> Result<()> {
@@ -73,8 +84,9 @@ pub fn run(a: MapArgs) -> Result<()> {
         }
         (Some(dir), _) => {
             ensure_dir(dir)?;
+            let fig_opts = a.figure.options()?;
             let bar = progress(lines.len() as u64);
-            let written = write_map(&s, &spec, lines, shard, dir, &|done, _| {
+            let written = write_map(&s, &spec, lines, shard, dir, &fig_opts, &|done, _| {
                 if let Some(b) = &bar {
                     b.set_position(done as u64);
                 }

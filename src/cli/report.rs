@@ -1,6 +1,6 @@
 //! `junctura report` (one scenario -> one folder) and `junctura demo` (the bundled demo scenarios).
 
-use super::common::{parse_axis, range, ScenarioArgs};
+use super::common::{parse_axis, parse_family, range, FigureArgs, ScenarioArgs};
 use junctura::report::bundle::{write_report, ReportOptions};
 use junctura::scenario::Scenario;
 use junctura::{Error, Result};
@@ -23,15 +23,32 @@ pub struct ReportArgs {
     /// Upper end of that range.
     #[arg(long)]
     to: Option<f64>,
+    /// Figures for several values of one parameter: NAME=v1,v2,... (critical beta^2, sigma0, p0, and a
+    /// multi-panel map with one panel per value).
+    #[arg(long)]
+    family: Option<String>,
+    #[command(flatten)]
+    figure: FigureArgs,
 }
 
 fn options(vary: Option<&str>, from: Option<f64>, to: Option<f64>) -> Result<ReportOptions> {
+    options_with(vary, from, to, None, &FigureArgs::default())
+}
+
+fn options_with(
+    vary: Option<&str>,
+    from: Option<f64>,
+    to: Option<f64>,
+    family: Option<&str>,
+    figure: &FigureArgs,
+) -> Result<ReportOptions> {
     let vary = vary.map(|v| parse_axis("--vary", v)).transpose()?.map(|a| (a.name, a.lo, a.hi, a.n));
     let range = match (from, to) {
         (None, None) => None,
         (lo, hi) => Some(range(lo, hi, (lo.unwrap_or(0.0), hi.unwrap_or(0.0)))?),
     };
-    Ok(ReportOptions { vary, range, map_size: (0, 0) })
+    let family = family.map(parse_family).transpose()?;
+    Ok(ReportOptions { vary, range, map_size: (0, 0), family, figure: figure.options()? })
 }
 
 fn print_listing(files: &[(PathBuf, String)]) {
@@ -42,7 +59,10 @@ fn print_listing(files: &[(PathBuf, String)]) {
 
 pub fn run_report(a: ReportArgs) -> Result<()> {
     let s = a.scenario.load()?;
-    let opts = options(a.vary.as_deref(), a.from, a.to)?;
+    let opts = options_with(a.vary.as_deref(), a.from, a.to, a.family.as_deref(), &a.figure)?;
+    if let Some((name, _)) = &opts.family {
+        s.params.index(name).map_err(|e| e.context(format!("--family {name}")))?;
+    }
     let files = write_report(&s, &a.out, &opts)?;
     print_listing(&files);
     Ok(())

@@ -2,6 +2,8 @@
 
 use super::num;
 use crate::error::{Error, Result};
+use crate::scan::cell::MAX_ROOTS;
+use crate::scan::grid::Beta2Source;
 use crate::scan::{Cell, CellClass, MapSpec, Summary};
 use crate::scenario::Scenario;
 use serde::{Deserialize, Serialize};
@@ -14,11 +16,49 @@ fn unit(kind: crate::scan::AxisKind) -> &'static str {
     }
 }
 
+/// The provenance line of a map: the scenario's, with each parameter that is a map axis given as its axis
+/// range instead of the scenario's fixed value.
+pub fn map_provenance(s: &Scenario, spec: &MapSpec) -> String {
+    let params: Vec<String> = s
+        .params
+        .names()
+        .iter()
+        .zip(s.params.values())
+        .map(|(n, v)| {
+            let axis = [&spec.x, &spec.y].into_iter().find(|a| a.kind != crate::scan::AxisKind::Radius && &a.name == n);
+            match axis {
+                Some(a) => format!("{n}={}..{} (map axis)", num(a.lo), num(a.hi)),
+                None => format!("{n}={v}"),
+            }
+        })
+        .collect();
+    s.provenance().replace(&s.params.describe(), &params.join(", "))
+}
+
+/// Where beta^2 comes from, in words.
+fn beta2_words(spec: &MapSpec) -> String {
+    match spec.beta2 {
+        Beta2Source::Axis => "the beta2 axis".into(),
+        Beta2Source::Fixed(b) => format!("fixed at {}", num(b)),
+        Beta2Source::Law => "the law's slope P'(sigma0) at each radius".into(),
+        Beta2Source::StaticRadii => format!(
+            "the law at each static radius; a cell with several static radii takes the class of {} (root rule {}), every radius is listed in radius_1..radius_{}",
+            crate::report::figures::root_rule_text(spec.root_rule),
+            spec.root_rule.name(),
+            MAX_ROOTS
+        ),
+    }
+}
+
 /// Comment lines (provenance) and the header line.
 pub fn csv_header(s: &Scenario, spec: &MapSpec) -> String {
+    let mut roots = String::new();
+    for k in 1..=MAX_ROOTS {
+        roots.push_str(&format!(",radius_{k} [M],class_{k}"));
+    }
     format!(
-        "# {}\n# map {} {}..{} ({} points) x {} {}..{} ({} points); beta2 source: {:?}; empty fields: not defined for the cell's class\nix,iy,{} [{}],{} [{}],radius [M],sigma [1/M],pressure [1/M],beta2 [1],potential_second_derivative [1/M^2],beta2_critical [1],class,null,weak,strong,dominant,n_static\n",
-        s.provenance(),
+        "# {}\n# map {} {}..{} ({} points) x {} {}..{} ({} points); beta2 from {}; empty fields: not defined for the cell's class\nix,iy,{} [{}],{} [{}],{} [M],sigma [1/M],pressure [1/M],beta2_used [1],potential_second_derivative [1/M^2],beta2_critical [1],class,null,weak,strong,dominant,n_static{roots}\n",
+        map_provenance(s, spec),
         spec.x.name,
         num(spec.x.lo),
         num(spec.x.hi),
@@ -27,11 +67,16 @@ pub fn csv_header(s: &Scenario, spec: &MapSpec) -> String {
         num(spec.y.lo),
         num(spec.y.hi),
         spec.y.n,
-        spec.beta2,
+        beta2_words(spec),
         spec.x.name,
         unit(spec.x.kind),
         spec.y.name,
         unit(spec.y.kind),
+        if spec.x.kind == crate::scan::AxisKind::Radius || spec.y.kind == crate::scan::AxisKind::Radius {
+            "static_radius"
+        } else {
+            "decisive_radius"
+        },
     )
 }
 
@@ -60,7 +105,7 @@ pub fn csv_rows(cells: &[Cell], out: &mut String) {
                 ""
             }
         };
-        let _ = writeln!(
+        let _ = write!(
             out,
             "{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{}",
             c.ix,
@@ -80,6 +125,15 @@ pub fn csv_rows(cells: &[Cell], out: &mut String) {
             ec(8),
             c.n_static
         );
+        for k in 0..MAX_ROOTS {
+            if c.roots[k].is_finite() {
+                let cls = CellClass::ALL.get(c.root_classes[k] as usize).map(|c| c.name()).unwrap_or("");
+                let _ = write!(out, ",{},{cls}", num(c.roots[k]));
+            } else {
+                out.push_str(",,");
+            }
+        }
+        out.push('\n');
     }
 }
 
@@ -95,7 +149,7 @@ pub fn parse_rows(text: &str, file: &str) -> Result<Vec<Cell>> {
             Error::input(format!("{file}:{}: not a map data row", ln + 1))
                 .with_hint("merge takes the part files written by map --shard")
         };
-        if f.len() != 16 {
+        if f.len() != 16 + 2 * MAX_ROOTS {
             return Err(bad());
         }
         let num = |s: &str| -> Result<f64> {
@@ -121,6 +175,23 @@ pub fn parse_rows(text: &str, file: &str) -> Result<Vec<Cell>> {
             class,
             energy_bits: bit(f[11], 1) | bit(f[12], 2) | bit(f[13], 4) | bit(f[14], 8),
             n_static: f[15].parse().map_err(|_| bad())?,
+            roots: {
+                let mut r = [f64::NAN; MAX_ROOTS];
+                for (k, v) in r.iter_mut().enumerate() {
+                    *v = num(f[16 + 2 * k])?;
+                }
+                r
+            },
+            root_classes: {
+                let mut r = [CellClass::NoStatic as u8; MAX_ROOTS];
+                for (k, v) in r.iter_mut().enumerate() {
+                    let name = f[17 + 2 * k];
+                    if !name.is_empty() {
+                        *v = CellClass::ALL.iter().copied().find(|c| c.name() == name).ok_or_else(bad)? as u8;
+                    }
+                }
+                r
+            },
         });
     }
     Ok(cells)
@@ -158,7 +229,7 @@ pub fn meta(s: &Scenario, spec: &MapSpec, summary: Summary, shard: Option<(usize
         version: env!("CARGO_PKG_VERSION").to_string(),
         scenario: s.name.clone(),
         scenario_sha256: s.origin.hash.clone(),
-        provenance: s.provenance(),
+        provenance: map_provenance(s, spec),
         parameters: s.params.names().iter().cloned().zip(s.params.values().iter().copied()).collect(),
         spec: serde_json::to_value(spec).unwrap_or(serde_json::Value::Null),
         lines: spec.n_lines(),

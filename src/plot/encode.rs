@@ -1,93 +1,216 @@
-//! Encoders: the figure as SVG text (physical size, provenance, embedded category bitmap), as a 300 dpi PNG
-//! with text chunks, and as a PDF converted from the SVG with the same embedded font.
+//! Encoders: the laid-out scene as SVG text (physical size, provenance, real dash patterns, embedded
+//! category bitmap), as a 300 dpi PNG rendered from that SVG (with text chunks), and as a PDF converted from
+//! the same SVG with the embedded fonts.
 
-use super::draw::{self, Device, Layout, MapMode};
+use super::scene::{self, Anchor, Item, Scene};
 use super::style::{self, render_error};
-use super::{plot_window, CategoryMap, Figure};
+use super::{CategoryMap, Figure, Look};
 use crate::error::Result;
-use plotters::prelude::{BitMapBackend, SVGBackend};
+use std::fmt::Write;
 
 const VERSION: &str = concat!("junctura ", env!("CARGO_PKG_VERSION"));
 
-/// Render the figure as SVG text: 8.5 cm wide, drawn on a 4x-per-point grid (`viewBox`), DejaVu Sans text,
-/// the category map (if any) as one embedded PNG, and the provenance line as a comment and `<metadata>`.
+/// Render the figure as SVG text: its physical size (8.5 cm wide unless the look says otherwise), user
+/// units of points (`viewBox`), text in the style's embedded font family, the category map (if any) as
+/// one embedded PNG, and the provenance line as a comment and `<metadata>`.
 pub fn render_svg(fig: &Figure) -> Result<String> {
-    style::ensure_font()?;
-    svg_with_family(fig, style::FONT_FAMILY)
+    svg(&scene::scene(fig)?, &fig.provenance, fig.title.as_deref())
 }
 
-/// Render the figure as a PNG at 300 dpi, 8.5 cm wide, with `Title`, `Software` and `Comment`
-/// (provenance) text chunks and the physical resolution recorded.
+/// Render the figure as a PNG at 300 dpi, with `Title`, `Software` and `Comment` (provenance) text chunks
+/// and the physical resolution recorded.
 pub fn render_png(fig: &Figure) -> Result<Vec<u8>> {
-    style::ensure_font()?;
-    png_with_family(fig, style::FONT_FAMILY)
+    let sc = scene::scene(fig)?;
+    let s = svg(&sc, &fig.provenance, fig.title.as_deref())?;
+    png(&s, &sc, &fig.provenance, fig.title.as_deref())
 }
 
-/// Render the figure as a one-page PDF (8.5 cm wide) with vector curves and text in the embedded DejaVu
-/// Sans; the provenance line goes into the document information (Subject and Keywords).
+/// Render the figure as a one-page PDF with vector curves and text in the embedded font; the provenance
+/// line goes into the document information (Subject and Keywords).
 pub fn render_pdf(fig: &Figure) -> Result<Vec<u8>> {
     let svg = render_svg(fig)?;
     pdf_from_svg(&svg, &fig.provenance, fig.title.as_deref())
 }
 
-fn size_px(px_per_pt: f64) -> (u32, u32) {
-    ((style::WIDTH_PT * px_per_pt).round() as u32, (style::HEIGHT_PT * px_per_pt).round() as u32)
+/// Render panels in a grid of `cols` columns, with shared axes (the union of the panels' ranges; tick
+/// labels on the outer panels), each panel's title above it and one legend above the grid, as SVG text.
+pub fn render_panels(figs: &[Figure], cols: usize, look: &Look, provenance: &str) -> Result<String> {
+    svg(&scene::scene_grid(figs, cols, look, None)?, provenance, None)
 }
 
-/// SVG rendering with an explicit font family (tests use an unregistered one to check the failure path).
-pub(crate) fn svg_with_family(fig: &Figure, family: &str) -> Result<String> {
-    let window = plot_window(fig)?;
-    let k = style::SVG_PX_PER_PT;
-    let (w, h) = size_px(k);
-    let mut svg = String::new();
-    let layout = {
-        let backend = SVGBackend::with_string(&mut svg, (w, h));
-        let dev = Device { px_per_pt: k, family, size_per_em: 1.24, map: MapMode::Deferred };
-        draw::draw(fig, window, backend, &dev)?
-    };
-    if svg.matches("<text").count() < 2 {
-        return Err(render_error("the SVG came out without text (axis labels and ticks are missing)"));
-    }
-    finish_svg(svg, fig, &layout, (w, h))
+fn hex((r, g, b): (u8, u8, u8)) -> String {
+    format!("#{r:02x}{g:02x}{b:02x}")
 }
 
-/// Give the SVG its physical size, provenance and (if any) the category map image.
-fn finish_svg(mut svg: String, fig: &Figure, layout: &Layout, (w, h): (u32, u32)) -> Result<String> {
-    let old = format!("width=\"{w}\" height=\"{h}\"");
-    let new =
-        format!("width=\"{:.3}cm\" height=\"{:.3}cm\"", style::WIDTH_PT / 72.0 * 2.54, style::HEIGHT_PT / 72.0 * 2.54);
-    if !svg.contains(&old) {
-        return Err(render_error("unexpected SVG header from the drawing backend"));
+fn f(v: f64) -> String {
+    let s = format!("{v:.3}");
+    let s = s.trim_end_matches('0').trim_end_matches('.');
+    if s == "-0" {
+        "0".into()
+    } else {
+        s.to_string()
     }
-    svg = svg.replacen(&old, &new, 1);
-    let open_end = svg.find("<svg").and_then(|i| svg[i..].find('>').map(|j| i + j + 1));
-    let Some(open_end) = open_end else {
-        return Err(render_error("unexpected SVG header from the drawing backend"));
-    };
-    let mut head = String::new();
-    head.push_str(&format!("\n<!-- {} -->\n", xml_escape(&fig.provenance).replace("--", "- -")));
-    if let Some(t) = &fig.title {
-        head.push_str(&format!("<title>{}</title>\n", xml_escape(t)));
-    }
-    head.push_str(&format!(
-        "<metadata><provenance xmlns=\"urn:junctura:provenance\" generator=\"{VERSION}\">{}</provenance></metadata>\n",
-        xml_escape(&fig.provenance)
-    ));
-    svg.insert_str(open_end, &head);
-    if let (Some(m), Some(rect)) = (&fig.categories, layout.map) {
-        // Under everything but the white background: right after the first (background) rectangle.
-        let bg_end = svg[open_end..]
-            .find("<rect")
-            .and_then(|i| svg[open_end + i..].find("/>").map(|j| open_end + i + j + 2))
-            .ok_or_else(|| render_error("no background rectangle in the SVG"))?;
-        svg.insert_str(bg_end, &map_image(m, rect, layout.plot)?);
-    }
-    Ok(svg)
 }
 
-/// The `<image>` element for a category map: one pixel per cell, stretched over the map's extent without
-/// smoothing, clipped to the plot area.
-fn map_image(m: &CategoryMap, (l, t, r, b): (f64, f64, f64, f64), plot: (f64, f64, f64, f64)) -> Result<String> {
+fn path_d(pts: &[(f64, f64)], close: bool) -> String {
+    let mut d = String::new();
+    for (k, p) in pts.iter().enumerate() {
+        let _ = write!(d, "{}{} {}", if k == 0 { "M" } else { " L" }, f(p.0), f(p.1));
+    }
+    if close {
+        d.push_str(" Z");
+    }
+    d
+}
+
+/// The SVG text of a scene.
+pub(crate) fn svg(sc: &Scene, provenance: &str, title: Option<&str>) -> Result<String> {
+    let mut s = String::new();
+    let _ = write!(
+        s,
+        "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n<svg xmlns=\"http://www.w3.org/2000/svg\" \
+         width=\"{:.3}cm\" height=\"{:.3}cm\" viewBox=\"0 0 {} {}\">\n<!-- {} -->\n",
+        sc.w / 72.0 * 2.54,
+        sc.h / 72.0 * 2.54,
+        f(sc.w),
+        f(sc.h),
+        xml_escape(provenance).replace("--", "- -")
+    );
+    if let Some(t) = title {
+        let _ = writeln!(s, "<title>{}</title>", xml_escape(t));
+    }
+    let _ = writeln!(
+        s,
+        "<metadata><provenance xmlns=\"urn:junctura:provenance\" generator=\"{VERSION}\">{}</provenance></metadata>",
+        xml_escape(provenance)
+    );
+    let mut clip_id = 0;
+    let _ = writeln!(s, "<g font-family=\"{}\">", sc.family);
+    for it in &sc.items {
+        match it {
+            Item::Line { pts, colour, width, dash } => {
+                if pts.len() < 2 {
+                    continue;
+                }
+                let _ = write!(
+                    s,
+                    "<path d=\"{}\" fill=\"none\" stroke=\"{}\" stroke-width=\"{}\" stroke-linejoin=\"round\"",
+                    path_d(pts, false),
+                    hex(*colour),
+                    f(*width)
+                );
+                if !dash.is_empty() {
+                    let pat: Vec<String> = dash.iter().map(|v| f(*v)).collect();
+                    let _ = write!(s, " stroke-dasharray=\"{}\"", pat.join(" "));
+                }
+                s.push_str("/>\n");
+            }
+            Item::Fill { pts, colour, opacity } => {
+                let _ = writeln!(
+                    s,
+                    "<path d=\"{}\" fill=\"{}\" fill-opacity=\"{}\" stroke=\"none\"/>",
+                    path_d(pts, true),
+                    hex(*colour),
+                    f(*opacity)
+                );
+            }
+            Item::Rect { b, fill, stroke } => {
+                let _ = write!(
+                    s,
+                    "<rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\"",
+                    f(b.x0),
+                    f(b.y0),
+                    f(b.x1 - b.x0),
+                    f(b.y1 - b.y0)
+                );
+                match fill {
+                    Some((c, a)) => {
+                        let _ = write!(s, " fill=\"{}\"", hex(*c));
+                        if *a < 1.0 {
+                            let _ = write!(s, " fill-opacity=\"{}\"", f(*a));
+                        }
+                    }
+                    None => s.push_str(" fill=\"none\""),
+                }
+                if let Some((c, w)) = stroke {
+                    let _ = write!(s, " stroke=\"{}\" stroke-width=\"{}\"", hex(*c), f(*w));
+                }
+                s.push_str("/>\n");
+            }
+            Item::Circle { c, r, fill, stroke } => {
+                let _ =
+                    write!(s, "<circle cx=\"{}\" cy=\"{}\" r=\"{}\" fill=\"{}\"", f(c.0), f(c.1), f(*r), hex(*fill));
+                if let Some((sc, w)) = stroke {
+                    let _ = write!(s, " stroke=\"{}\" stroke-width=\"{}\"", hex(*sc), f(*w));
+                }
+                s.push_str("/>\n");
+            }
+            Item::Text { at, size, colour, text, anchor, rotate } => {
+                let a = match anchor {
+                    Anchor::Start => "start",
+                    Anchor::Middle => "middle",
+                    Anchor::End => "end",
+                };
+                let _ = write!(
+                    s,
+                    "<text x=\"{}\" y=\"{}\" font-size=\"{}\" text-anchor=\"{a}\" fill=\"{}\"",
+                    f(at.0),
+                    f(at.1),
+                    f(*size),
+                    hex(*colour)
+                );
+                if *rotate {
+                    let _ = write!(s, " transform=\"rotate(-90 {} {})\"", f(at.0), f(at.1));
+                }
+                s.push('>');
+                for (run, k) in super::text::runs(text) {
+                    use super::text::{Script, SCRIPT_SCALE, SUB_SHIFT, SUPER_SHIFT};
+                    match k {
+                        Script::Normal => s.push_str(&xml_escape(&run)),
+                        Script::Sub | Script::Super => {
+                            let shift = if k == Script::Sub { SUB_SHIFT } else { SUPER_SHIFT };
+                            let _ = write!(
+                                s,
+                                "<tspan font-size=\"{}\" baseline-shift=\"{}\">{}</tspan>",
+                                f(size * SCRIPT_SCALE),
+                                f(size * shift),
+                                xml_escape(&run)
+                            );
+                        }
+                    }
+                }
+                s.push_str("</text>\n");
+            }
+            Item::Image { b, clip, png } => {
+                clip_id += 1;
+                let _ = writeln!(
+                    s,
+                    "<defs><clipPath id=\"plot-area-{clip_id}\"><rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\"/></clipPath></defs>",
+                    f(clip.x0),
+                    f(clip.y0),
+                    f(clip.x1 - clip.x0),
+                    f(clip.y1 - clip.y0)
+                );
+                let _ = writeln!(
+                    s,
+                    "<image x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\" preserveAspectRatio=\"none\" \
+                     image-rendering=\"optimizeSpeed\" style=\"image-rendering:pixelated\" \
+                     clip-path=\"url(#plot-area-{clip_id})\" href=\"data:image/png;base64,{}\"/>",
+                    f(b.x0),
+                    f(b.y0),
+                    f(b.x1 - b.x0),
+                    f(b.y1 - b.y0),
+                    base64(png)
+                );
+            }
+        }
+    }
+    s.push_str("</g>\n</svg>\n");
+    Ok(s)
+}
+
+/// One pixel per cell of a category map (top row first), as PNG bytes.
+pub(crate) fn category_png(m: &CategoryMap) -> Result<Vec<u8>> {
     let (nx, ny) = (m.x.2, m.y.2);
     let mut rgb = Vec::with_capacity(nx * ny * 3);
     for row in (0..ny).rev() {
@@ -97,48 +220,51 @@ fn map_image(m: &CategoryMap, (l, t, r, b): (f64, f64, f64, f64), plot: (f64, f6
             rgb.extend_from_slice(&[cr, cg, cb]);
         }
     }
-    let png = encode_png(&rgb, (nx as u32, ny as u32), &[], None)?;
-    Ok(format!(
-        "\n<defs><clipPath id=\"plot-area\"><rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\"/></clipPath></defs>\n\
-         <image x=\"{l}\" y=\"{t}\" width=\"{}\" height=\"{}\" preserveAspectRatio=\"none\" \
-         image-rendering=\"optimizeSpeed\" style=\"image-rendering:pixelated\" clip-path=\"url(#plot-area)\" \
-         href=\"data:image/png;base64,{}\"/>\n",
-        plot.0,
-        plot.1,
-        plot.2 - plot.0,
-        plot.3 - plot.1,
-        r - l,
-        b - t,
-        base64(&png)
-    ))
+    encode_png(&rgb, (nx as u32, ny as u32), &[], None)
 }
 
-/// Raster rendering: RGB pixels, their size and the layout. Fails if the picture comes out nearly blank.
-fn raster(fig: &Figure, family: &str) -> Result<(Vec<u8>, (u32, u32), Layout)> {
-    let window = plot_window(fig)?;
+/// Options for reading our SVG: both embedded fonts in the font database (checked to be non-empty, since
+/// an empty one silently drops all text).
+fn svg_options() -> Result<usvg::Options<'static>> {
+    let mut opt = usvg::Options { font_family: style::SERIF_FAMILY.to_string(), ..usvg::Options::default() };
+    {
+        let db = opt.fontdb_mut();
+        db.load_font_data(style::SERIF_FONT.to_vec());
+        db.load_font_data(dejavu::sans::regular().to_vec());
+        db.set_serif_family(style::SERIF_FAMILY);
+        db.set_sans_serif_family(style::SANS_FAMILY);
+    }
+    if opt.fontdb.len() < 2 {
+        return Err(render_error("the font database is missing the embedded fonts"));
+    }
+    Ok(opt)
+}
+
+/// Raster the SVG at 300 dpi on white; fails if the picture comes out nearly blank.
+pub(crate) fn png(svg: &str, sc: &Scene, provenance: &str, title: Option<&str>) -> Result<Vec<u8>> {
+    let opt = svg_options()?;
+    let tree = usvg::Tree::from_str(svg, &opt).map_err(|e| render_error(format!("reading our own SVG: {e}")))?;
     let k = style::PNG_DPI / 72.0;
-    let (w, h) = size_px(k);
-    let mut buf = vec![0u8; (w * h * 3) as usize];
-    let layout = {
-        let backend = BitMapBackend::with_buffer(&mut buf, (w, h));
-        let dev = Device { px_per_pt: k, family, size_per_em: 1.164, map: MapMode::Pixels };
-        draw::draw(fig, window, backend, &dev)?
-    };
-    let inked = buf.chunks(3).filter(|p| p.iter().any(|&c| c < 200)).count();
+    let (w, h) = ((sc.w * k).round() as u32, (sc.h * k).round() as u32);
+    let mut pix = resvg::tiny_skia::Pixmap::new(w, h).ok_or_else(|| render_error("PNG size is zero"))?;
+    pix.fill(resvg::tiny_skia::Color::WHITE);
+    let sx = w as f32 / tree.size().width();
+    let sy = h as f32 / tree.size().height();
+    resvg::render(&tree, resvg::tiny_skia::Transform::from_scale(sx, sy), &mut pix.as_mut());
+    let mut rgb = Vec::with_capacity((w * h * 3) as usize);
+    for p in pix.pixels() {
+        let c = p.demultiply();
+        rgb.extend_from_slice(&[c.red(), c.green(), c.blue()]);
+    }
+    let inked = rgb.chunks(3).filter(|p| p.iter().any(|&c| c < 200)).count();
     if inked < (w * h / 500) as usize {
         return Err(render_error(format!("the PNG came out nearly blank ({inked} dark pixels)")));
     }
-    Ok((buf, (w, h), layout))
-}
-
-/// PNG rendering with an explicit font family.
-pub(crate) fn png_with_family(fig: &Figure, family: &str) -> Result<Vec<u8>> {
-    let (buf, (w, h), _) = raster(fig, family)?;
-    let mut text = vec![("Software", VERSION.to_string()), ("Comment", fig.provenance.clone())];
-    if let Some(t) = &fig.title {
-        text.push(("Title", t.clone()));
+    let mut text = vec![("Software", VERSION.to_string()), ("Comment", provenance.to_string())];
+    if let Some(t) = title {
+        text.push(("Title", t.to_string()));
     }
-    encode_png(&buf, (w, h), &text, Some(style::PNG_DPI))
+    encode_png(&rgb, (w, h), &text, Some(style::PNG_DPI))
 }
 
 /// Encode 8-bit RGB pixels as PNG with text chunks (`tEXt` for Latin-1 text, `iTXt` otherwise) and an
@@ -169,20 +295,11 @@ fn encode_png(rgb: &[u8], (w, h): (u32, u32), text: &[(&str, String)], dpi: Opti
     Ok(out)
 }
 
-/// Convert our SVG to PDF: the bundled font is loaded into the converter's font database (checked to be
-/// non-empty, since an empty one silently drops all text), the page is the SVG's physical size, and the
+/// Convert our SVG to PDF: the embedded fonts are loaded into the converter's font database, the page is the SVG's physical size, and the
 /// provenance goes into the document information.
 pub(crate) fn pdf_from_svg(svg: &str, provenance: &str, title: Option<&str>) -> Result<Vec<u8>> {
     use pdf_writer::{Content, Finish, Name, Pdf, Rect, Ref, TextStr};
-    let mut opt = usvg::Options { font_family: style::FONT_FAMILY.to_string(), ..usvg::Options::default() };
-    {
-        let db = opt.fontdb_mut();
-        db.load_font_data(dejavu::sans::regular().to_vec());
-        db.set_sans_serif_family(style::FONT_FAMILY);
-    }
-    if opt.fontdb.is_empty() {
-        return Err(render_error("the PDF converter's font database is empty (the bundled font did not load)"));
-    }
+    let opt = svg_options()?;
     let tree = usvg::Tree::from_str(svg, &opt).map_err(|e| render_error(format!("reading our own SVG: {e}")))?;
     let (chunk, svg_ref) = svg2pdf::to_chunk(&tree, svg2pdf::ConversionOptions::default())
         .map_err(|e| render_error(format!("SVG to PDF conversion: {e}")))?;
@@ -244,7 +361,6 @@ fn base64(bytes: &[u8]) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::error::ErrorKind;
     use crate::plot::{LineStyle, Series};
 
     fn small_figure() -> Figure {
@@ -254,7 +370,7 @@ mod tests {
             series: vec![Series {
                 label: "V".into(),
                 points: vec![(0.0, 0.0), (1.0, 1.0)],
-                style: LineStyle::Solid,
+                style: LineStyle::Dashed,
                 colour: 0,
             }],
             provenance: "unit test".into(),
@@ -263,48 +379,42 @@ mod tests {
     }
 
     #[test]
-    fn unregistered_font_is_an_error_not_a_blank_file() {
-        style::ensure_font().unwrap();
-        let fig = small_figure();
-        for e in [
-            svg_with_family(&fig, "no-such-font-family").unwrap_err(),
-            png_with_family(&fig, "no-such-font-family").unwrap_err(),
-        ] {
-            assert_eq!(e.kind, ErrorKind::Io);
-            assert!(e.message.contains("FontUnavailable"), "{}", e.message);
-        }
-        // The registered family renders.
-        assert!(svg_with_family(&fig, style::FONT_FAMILY).is_ok());
+    fn dashed_curves_carry_a_dash_array() {
+        let svg = render_svg(&small_figure()).unwrap();
+        assert!(svg.contains("stroke-dasharray=\"4 2\""), "{svg}");
     }
 
     #[test]
     fn category_map_pixels_have_their_category_colours() {
         // 3 x 2 grid on [0, 3] x [0, 2]; row 0 is the bottom row.
         let cells = vec![0, 1, 2, 3, 4, 0];
-        // Unnamed categories and an unlabelled curve: no legend box hides any cell.
         let categories: Vec<(String, usize)> = (0..5).map(|i| (String::new(), i)).collect();
         let mut fig = Figure {
             categories: Some(CategoryMap { x: (0.0, 3.0, 3), y: (0.0, 2.0, 2), cells: cells.clone(), categories }),
             ..small_figure()
         };
         fig.series[0].label.clear();
-        style::ensure_font().unwrap();
-        let (buf, (w, _), layout) = raster(&fig, style::FONT_FAMILY).unwrap();
-        let (l, t, r, b) = layout.plot;
+        let sc = scene::scene(&fig).unwrap();
+        let s = svg(&sc, "t", None).unwrap();
+        let bytes = png(&s, &sc, "t", None).unwrap();
+        let mut reader = png::Decoder::new(bytes.as_slice()).read_info().unwrap();
+        let mut buf = vec![0; reader.output_buffer_size()];
+        reader.next_frame(&mut buf).unwrap();
+        let w = reader.info().width;
+        let k = style::PNG_DPI / 72.0;
+        let p = sc.layout.plots[0];
         for (idx, &cat) in cells.iter().enumerate() {
             let (ix, iy) = (idx % 3, idx / 3);
             // Cell centre, nudged off the diagonal test curve (which runs from (0,0) to (1,1) in data).
             let (x, y) = (ix as f64 + 0.5, iy as f64 + 0.3);
-            let px = (l + x / 3.0 * (r - l)).round() as u32;
-            let py = (b - y / 2.0 * (b - t)).round() as u32;
+            let px = ((p.x0 + x / 3.0 * (p.x1 - p.x0)) * k).round() as u32;
+            let py = ((p.y1 - y / 2.0 * (p.y1 - p.y0)) * k).round() as u32;
             let o = ((py * w + px) * 3) as usize;
             let (cr, cg, cb) = style::category_fill(cat as usize);
             assert_eq!(&buf[o..o + 3], &[cr, cg, cb], "cell ({ix}, {iy}) should show category {cat}");
         }
-        // The SVG carries the same map as one image, not as per-cell rectangles.
-        let svg = render_svg(&fig).unwrap();
-        assert_eq!(svg.matches("<image").count(), 1);
-        assert!(svg.matches("<rect").count() < 10);
+        assert_eq!(s.matches("<image").count(), 1);
+        assert!(s.matches("<rect").count() < 10);
     }
 
     #[test]

@@ -1,5 +1,5 @@
 //! Plane geometry for figures: splitting curves at gaps (NaN), clipping polylines and polygons to the plot
-//! window, cutting paths into dash patterns in device units, and picking axis ranges from the data.
+//! window, contours of sampled fields (marching squares), and picking axis ranges from the data.
 //! Everything here is pure and works in plain `f64` pairs.
 
 /// A rectangle `[x0, x1] x [y0, y1]` with `x0 < x1`, `y0 < y1`.
@@ -31,7 +31,7 @@ pub(crate) fn split_finite(points: &[(f64, f64)]) -> Vec<Vec<(f64, f64)>> {
 
 /// Clip the segment p-q to the window (Liang-Barsky parametric clipping, common practice).
 /// Returns the visible part or None.
-fn clip_segment(p: (f64, f64), q: (f64, f64), w: &Window) -> Option<((f64, f64), (f64, f64))> {
+pub(crate) fn clip_segment(p: (f64, f64), q: (f64, f64), w: &Window) -> Option<((f64, f64), (f64, f64))> {
     let (dx, dy) = (q.0 - p.0, q.1 - p.1);
     let mut t0 = 0.0_f64;
     let mut t1 = 1.0_f64;
@@ -129,40 +129,95 @@ pub(crate) fn clip_polygon(poly: &[(f64, f64)], w: &Window) -> Vec<(f64, f64)> {
     pts
 }
 
-/// Cut a device-space polyline into the "on" pieces of a dash pattern (alternating on/off lengths, in
-/// device units, starting with "on"). An empty pattern means a solid line: the path comes back whole.
-pub(crate) fn dash(path: &[(f64, f64)], pattern: &[f64]) -> Vec<Vec<(f64, f64)>> {
-    if pattern.is_empty() || pattern.iter().any(|l| l.is_nan() || *l <= 0.0) || path.len() < 2 {
-        return vec![path.to_vec()];
+/// The level-`level` contour of a field sampled on a grid, as polylines (marching squares with linear
+/// interpolation along cell edges; Lorensen & Cline 1987 in two dimensions, common practice). `values` is
+/// row-major with y outer (`values[j * xs.len() + i]` at `(xs[i], ys[j])`); squares with a non-finite corner
+/// are skipped, so the contour stops where the field is undefined. Saddle squares are resolved by the mean
+/// of the four corners. Segments are joined into the longest polylines, so a dash pattern runs on along
+/// the whole curve.
+pub fn contour_segments(values: &[f64], xs: &[f64], ys: &[f64], level: f64) -> Vec<Vec<(f64, f64)>> {
+    let (nx, ny) = (xs.len(), ys.len());
+    if nx < 2 || ny < 2 || values.len() != nx * ny {
+        return vec![];
     }
-    let mut out = Vec::new();
-    let mut idx = 0usize; // position in the pattern
-    let mut left = pattern[0]; // length left in the current dash or gap
-    let mut cur: Vec<(f64, f64)> = vec![path[0]];
-    for pair in path.windows(2) {
-        let (a, b) = (pair[0], pair[1]);
-        let len = ((b.0 - a.0).powi(2) + (b.1 - a.1).powi(2)).sqrt();
-        let mut done = 0.0;
-        while len - done > left {
-            done += left;
-            let t = done / len;
-            let p = (a.0 + t * (b.0 - a.0), a.1 + t * (b.1 - a.1));
-            if idx % 2 == 0 {
-                cur.push(p);
-                out.push(std::mem::take(&mut cur));
-            } else {
-                cur = vec![p];
+    let v = |i: usize, j: usize| values[j * nx + i] - level;
+    let mut segs: Vec<((f64, f64), (f64, f64))> = Vec::new();
+    for j in 0..ny - 1 {
+        for i in 0..nx - 1 {
+            // Corners counter-clockwise from bottom left.
+            let c = [v(i, j), v(i + 1, j), v(i + 1, j + 1), v(i, j + 1)];
+            if c.iter().any(|x| !x.is_finite()) {
+                continue;
             }
-            idx = (idx + 1) % pattern.len();
-            left = pattern[idx];
-        }
-        left -= len - done;
-        if idx % 2 == 0 {
-            cur.push(b);
+            let p = [(xs[i], ys[j]), (xs[i + 1], ys[j]), (xs[i + 1], ys[j + 1]), (xs[i], ys[j + 1])];
+            // Crossing point on edge k (corner k to corner k+1).
+            let cross = |k: usize| {
+                // Interpolate from the lower-left end, so the squares on both sides of an edge agree exactly.
+                let (mut ka, mut kb) = (k, (k + 1) % 4);
+                if p[kb] < p[ka] {
+                    std::mem::swap(&mut ka, &mut kb);
+                }
+                let (a, b) = (c[ka], c[kb]);
+                let t = if a == b { 0.5 } else { a / (a - b) };
+                let (pa, pb) = (p[ka], p[kb]);
+                (pa.0 + t * (pb.0 - pa.0), pa.1 + t * (pb.1 - pa.1))
+            };
+            let above: Vec<bool> = c.iter().map(|&x| x >= 0.0).collect();
+            let edges: Vec<usize> = (0..4).filter(|&k| above[k] != above[(k + 1) % 4]).collect();
+            match edges.len() {
+                2 => segs.push((cross(edges[0]), cross(edges[1]))),
+                4 => {
+                    let centre_above = c.iter().sum::<f64>() / 4.0 >= 0.0;
+                    // Pair each edge with its neighbour so that the centre's side is connected.
+                    if centre_above == above[0] {
+                        segs.push((cross(0), cross(1)));
+                        segs.push((cross(2), cross(3)));
+                    } else {
+                        segs.push((cross(3), cross(0)));
+                        segs.push((cross(1), cross(2)));
+                    }
+                }
+                _ => {}
+            }
         }
     }
-    if idx % 2 == 0 && cur.len() >= 2 {
-        out.push(cur);
+    join_segments(segs)
+}
+
+/// Join segments sharing end points (to rounding) into polylines.
+fn join_segments(segs: Vec<((f64, f64), (f64, f64))>) -> Vec<Vec<(f64, f64)>> {
+    use std::collections::HashMap;
+    let key = |p: (f64, f64)| ((p.0 * 1e9).round() as i64, (p.1 * 1e9).round() as i64);
+    // A contour through a grid point leaves zero-length pieces in the squares around it: drop them.
+    let segs: Vec<((f64, f64), (f64, f64))> = segs.into_iter().filter(|s| key(s.0) != key(s.1)).collect();
+    let mut ends: HashMap<(i64, i64), Vec<usize>> = HashMap::new();
+    for (k, s) in segs.iter().enumerate() {
+        ends.entry(key(s.0)).or_default().push(k);
+        ends.entry(key(s.1)).or_default().push(k);
+    }
+    let mut used = vec![false; segs.len()];
+    let mut out = Vec::new();
+    let next = |p: (f64, f64), used: &[bool]| -> Option<usize> {
+        ends.get(&key(p)).and_then(|v| v.iter().copied().find(|&k| !used[k]))
+    };
+    for start in 0..segs.len() {
+        if used[start] {
+            continue;
+        }
+        used[start] = true;
+        let mut line = std::collections::VecDeque::from([segs[start].0, segs[start].1]);
+        // Extend at the back, then at the front.
+        while let Some(k) = next(*line.back().unwrap_or(&segs[start].1), &used) {
+            used[k] = true;
+            let b = *line.back().unwrap_or(&segs[k].0);
+            line.push_back(if key(segs[k].0) == key(b) { segs[k].1 } else { segs[k].0 });
+        }
+        while let Some(k) = next(*line.front().unwrap_or(&segs[start].0), &used) {
+            used[k] = true;
+            let f = *line.front().unwrap_or(&segs[k].0);
+            line.push_front(if key(segs[k].0) == key(f) { segs[k].1 } else { segs[k].0 });
+        }
+        out.push(line.into_iter().collect());
     }
     out
 }
@@ -229,16 +284,40 @@ mod tests {
     }
 
     #[test]
-    fn dashes_cover_the_on_fraction_of_the_length() {
-        let path = [(0.0, 0.0), (10.0, 0.0), (10.0, 10.0)];
-        let pieces = dash(&path, &[2.0, 2.0]);
-        let on: f64 = pieces
-            .iter()
-            .map(|p| p.windows(2).map(|s| ((s[1].0 - s[0].0).powi(2) + (s[1].1 - s[0].1).powi(2)).sqrt()).sum::<f64>())
-            .sum();
-        assert!((on - 10.0).abs() < 1e-9, "on length {on}");
-        assert_eq!(pieces.len(), 5);
-        assert_eq!(dash(&path, &[]).len(), 1);
+    fn contour_of_a_plane_is_one_straight_line() {
+        // f(x, y) = x + y - 1 on a 6 x 5 grid over [0, 1]^2: the zero contour is the line x + y = 1.
+        let xs: Vec<f64> = (0..6).map(|i| i as f64 / 5.0).collect();
+        let ys: Vec<f64> = (0..5).map(|j| j as f64 / 4.0).collect();
+        let vals: Vec<f64> = ys.iter().flat_map(|&y| xs.iter().map(move |&x| x + y - 1.0)).collect();
+        let lines = contour_segments(&vals, &xs, &ys, 0.0);
+        assert_eq!(lines.len(), 1, "{lines:?}");
+        assert!(lines[0].len() >= 5);
+        for &(x, y) in &lines[0] {
+            assert!((x + y - 1.0).abs() < 1e-12, "({x}, {y}) off the line");
+        }
+    }
+
+    #[test]
+    fn contour_of_a_circle_closes_and_stops_at_gaps() {
+        let xs: Vec<f64> = (0..41).map(|i| -1.0 + i as f64 / 20.0).collect();
+        let ys = xs.clone();
+        let mut vals: Vec<f64> = ys.iter().flat_map(|&y| xs.iter().map(move |&x| x * x + y * y - 0.5)).collect();
+        let lines = contour_segments(&vals, &xs, &ys, 0.0);
+        assert_eq!(lines.len(), 1, "{:?}", lines.iter().map(|l| (l.len(), l[0], l[l.len() - 1])).collect::<Vec<_>>());
+        let l = &lines[0];
+        assert_eq!(l.first(), l.last(), "a circle closes");
+        for &(x, y) in l {
+            assert!(((x * x + y * y).sqrt() - 0.5f64.sqrt()).abs() < 0.01);
+        }
+        // Undefined values (NaN) on the left half cut the circle open.
+        for j in 0..41 {
+            for i in 0..20 {
+                vals[j * 41 + i] = f64::NAN;
+            }
+        }
+        let lines = contour_segments(&vals, &xs, &ys, 0.0);
+        assert_eq!(lines.len(), 1);
+        assert_ne!(lines[0].first(), lines[0].last());
     }
 
     #[test]

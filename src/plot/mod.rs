@@ -1,14 +1,20 @@
 //! Paper-ready figures: a plain [`Figure`] description in, SVG text, PNG bytes or PDF bytes out.
 //!
-//! Figures are sized for one journal column (8.5 cm wide), with 7-8.5 pt text in the bundled DejaVu Sans
-//! (no system fonts needed; the PDF embeds it), ~1 pt lines, a legend, the colour-blind-safe Okabe-Ito
-//! palette and line styles that keep curves apart in greyscale. A dense 2-D map of categories (e.g. which
-//! kind of solution each parameter point has) is embedded as one bitmap under vector axes and curves.
-//! Every output carries the figure's provenance line: an XML comment and `<metadata>` in the SVG, the
-//! document information (subject, keywords) in the PDF, a `tEXt` chunk in the PNG.
+//! Two looks ([`StyleName`]): `journal` (serif text in the embedded STIX General, which matches LaTeX
+//! documents set in Times/STIX; ticks inside on all four sides) and `classic` (the embedded DejaVu Sans,
+//! ticks outside on the left and bottom). Both embed their fonts: no system fonts are used. Width (one
+//! column 8.5 cm, two columns 17.8 cm, or any), aspect, log axes and the legend position are in [`Look`].
+//! Curves use the colour-blind-safe Okabe-Ito palette and dash patterns that keep them apart in greyscale;
+//! dashes are real dash patterns (`stroke-dasharray` in the SVG, the dash operator in the PDF). A dense 2-D
+//! map of categories is embedded as one bitmap under vector axes and curves.
 //!
-//! The renderers are pure; [`write_figure`] is the one helper that writes files (`stem.svg`, `stem.pdf`,
-//! `stem.png`), through [`crate::output::write_atomic`].
+//! Layout is computed in points before drawing ([`layout`]): every text box and every data line is known,
+//! so labels are put where they hide nothing and tests can check that. Every output carries the figure's
+//! provenance line: an XML comment and `<metadata>` in the SVG, the document information in the PDF, a
+//! `tEXt` chunk in the PNG.
+//!
+//! The renderers are pure; [`write_figure`] and [`write_panels`] are the helpers that write files
+//! (`stem.svg`, `stem.pdf`, `stem.png`), through [`crate::output::write_atomic`].
 //!
 //! ```
 //! use junctura::plot::{render_svg, Figure, LineStyle, Marker, RefLine, Series};
@@ -28,15 +34,172 @@
 //! assert!(svg.contains("a/M") && svg.contains("V(a)") && svg.contains("example; m = 1"));
 //! ```
 
-mod draw;
 mod encode;
 mod geom;
+mod scene;
 mod style;
+mod text;
 
 use crate::error::{Error, Result};
 use std::path::{Path, PathBuf};
 
-pub use encode::{render_pdf, render_png, render_svg};
+pub use encode::{render_panels, render_pdf, render_png, render_svg};
+pub use geom::contour_segments;
+pub use scene::{BBox, Layout, TextBox, TextKind};
+
+/// The look of a figure: style, size, log axes, legend position.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Look {
+    /// Fonts, sizes, tick direction.
+    pub style: StyleName,
+    /// Width in cm (one journal column: 8.5, two columns: 17.8).
+    pub width_cm: f64,
+    /// Height / width of the canvas (of each panel's share in a grid).
+    pub aspect: f64,
+    /// Logarithmic horizontal axis.
+    pub log_x: bool,
+    /// Logarithmic vertical axis.
+    pub log_y: bool,
+    /// Where the legend goes.
+    pub legend: LegendPos,
+    /// Fill opacity of bands (lower it where many bands overlap).
+    pub band_opacity: f64,
+}
+
+impl Default for Look {
+    fn default() -> Self {
+        Look {
+            style: StyleName::Classic,
+            width_cm: 8.5,
+            aspect: 0.75,
+            log_x: false,
+            log_y: false,
+            legend: LegendPos::Auto,
+            band_opacity: 0.25,
+        }
+    }
+}
+
+/// Figure control given by the user (command-line options): each `Some` / `true` overrides what the figure
+/// would otherwise use. Applied to every figure a command writes.
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct FigureOptions {
+    /// Style.
+    pub style: Option<StyleName>,
+    /// Width in cm.
+    pub width_cm: Option<f64>,
+    /// Height / width.
+    pub aspect: Option<f64>,
+    /// Horizontal axis limits.
+    pub x_limits: Option<(f64, f64)>,
+    /// Vertical axis limits.
+    pub y_limits: Option<(f64, f64)>,
+    /// Logarithmic horizontal axis (not applied to maps).
+    pub log_x: bool,
+    /// Logarithmic vertical axis (not applied to maps).
+    pub log_y: bool,
+    /// Horizontal axis label.
+    pub x_label: Option<String>,
+    /// Vertical axis label.
+    pub y_label: Option<String>,
+    /// Legend position.
+    pub legend: Option<LegendPos>,
+}
+
+impl FigureOptions {
+    /// The look these options give, starting from `default_style`.
+    pub fn look(&self, default_style: StyleName) -> Look {
+        let d = Look::default();
+        Look {
+            style: self.style.unwrap_or(default_style),
+            width_cm: self.width_cm.unwrap_or(d.width_cm),
+            aspect: self.aspect.unwrap_or(d.aspect),
+            log_x: self.log_x,
+            log_y: self.log_y,
+            legend: self.legend.unwrap_or(d.legend),
+            band_opacity: d.band_opacity,
+        }
+    }
+
+    /// Apply the options to `fig` (log axes only to figures without a category map).
+    pub fn apply(&self, fig: &mut Figure, default_style: StyleName) {
+        let mut look = Look { band_opacity: fig.look.band_opacity, ..self.look(default_style) };
+        if fig.categories.is_some() {
+            look.log_x = false;
+            look.log_y = false;
+        }
+        fig.look = look;
+        if let Some(r) = self.x_limits {
+            fig.x_range = Some(r);
+        }
+        if let Some(r) = self.y_limits {
+            fig.y_range = Some(r);
+        }
+        if let Some(l) = &self.x_label {
+            fig.x_label = l.clone();
+        }
+        if let Some(l) = &self.y_label {
+            fig.y_label = l.clone();
+        }
+    }
+}
+
+/// The two looks.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum StyleName {
+    /// Serif text (STIX General), ticks inside on all four sides, unframed legend.
+    Journal,
+    /// Sans-serif text (DejaVu Sans), ticks outside on the left and bottom, framed legend.
+    #[default]
+    Classic,
+}
+
+impl StyleName {
+    /// Parse `journal` or `classic`.
+    pub fn parse(s: &str) -> Option<StyleName> {
+        match s {
+            "journal" => Some(StyleName::Journal),
+            "classic" => Some(StyleName::Classic),
+            _ => None,
+        }
+    }
+}
+
+/// Legend position.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum LegendPos {
+    /// Inside the plot where it covers no data, else above the plot.
+    #[default]
+    Auto,
+    /// Inside, upper right corner.
+    UpperRight,
+    /// Inside, upper left corner.
+    UpperLeft,
+    /// Inside, lower right corner.
+    LowerRight,
+    /// Inside, lower left corner.
+    LowerLeft,
+    /// Above the plot, in rows.
+    Above,
+    /// No legend.
+    None,
+}
+
+impl LegendPos {
+    /// Parse `auto`, `upper-right`, `upper-left`, `lower-right`, `lower-left`, `above` or `none`.
+    pub fn parse(s: &str) -> Option<LegendPos> {
+        Some(match s {
+            "auto" => LegendPos::Auto,
+            "upper-right" => LegendPos::UpperRight,
+            "upper-left" => LegendPos::UpperLeft,
+            "lower-right" => LegendPos::LowerRight,
+            "lower-left" => LegendPos::LowerLeft,
+            "above" => LegendPos::Above,
+            "none" => LegendPos::None,
+            _ => return None,
+        })
+    }
+}
 
 /// A figure: axes, curves, shaded bands, marked points, reference lines and an optional category map.
 #[derive(Debug, Clone, Default, PartialEq)]
@@ -64,6 +227,10 @@ pub struct Figure {
     pub categories: Option<CategoryMap>,
     /// One line saying what produced the figure: scenario, hash, parameters, tool version.
     pub provenance: String,
+    /// Notes printed under the plot (e.g. where a curve is clipped).
+    pub notes: Vec<String>,
+    /// Style, size, log axes, legend position.
+    pub look: Look,
 }
 
 /// One curve. Points with a non-finite coordinate (NaN, ±inf) are gaps: the line breaks there.
@@ -162,26 +329,46 @@ pub enum Orientation {
     Horizontal,
 }
 
-/// A dotted grey reference line with a small label (a horizon radius, V = 0, ...).
+/// A reference line across the plot with a small label placed where it hides nothing (a horizon radius,
+/// V = 0, ...): dotted grey unless given a colour and pattern.
 #[derive(Debug, Clone, PartialEq)]
 pub struct RefLine {
     /// Vertical (x = at) or horizontal (y = at).
     pub orientation: Orientation,
     /// Position in data coordinates.
     pub at: f64,
-    /// Label written at the line's end (may be empty).
+    /// Label written beside the line (may be empty).
     pub label: String,
+    /// Palette index (None: grey).
+    pub colour: Option<usize>,
+    /// Dash pattern (None: fine dots).
+    pub style: Option<LineStyle>,
 }
 
 impl RefLine {
     /// The line x = `at`.
     pub fn vertical(at: f64, label: impl Into<String>) -> Self {
-        RefLine { orientation: Orientation::Vertical, at, label: label.into() }
+        RefLine { orientation: Orientation::Vertical, at, label: label.into(), colour: None, style: None }
     }
     /// The line y = `at`.
     pub fn horizontal(at: f64, label: impl Into<String>) -> Self {
-        RefLine { orientation: Orientation::Horizontal, at, label: label.into() }
+        RefLine { orientation: Orientation::Horizontal, at, label: label.into(), colour: None, style: None }
     }
+    /// The same line in palette colour `colour` with dash pattern `style`.
+    pub fn drawn(self, colour: usize, style: LineStyle) -> Self {
+        RefLine { colour: Some(colour), style: Some(style), ..self }
+    }
+}
+
+/// The layout of a figure as it will be drawn: canvas, plot area, every text box and data line (points, y
+/// down). Errors as for [`render_svg`].
+pub fn layout(fig: &Figure) -> Result<Layout> {
+    Ok(scene::scene(fig)?.layout)
+}
+
+/// The layout of a multi-panel figure (see [`render_panels`]).
+pub fn layout_panels(figs: &[Figure], cols: usize, look: &Look) -> Result<Layout> {
+    Ok(scene::scene_grid(figs, cols, look, None)?.layout)
 }
 
 /// A dense map of categories on a regular grid, drawn as one bitmap.
@@ -204,9 +391,37 @@ pub fn write_figure(fig: &Figure, dir: &Path, stem: &str) -> Result<Vec<PathBuf>
         return Err(Error::input(format!("figure file stem {stem:?} is not a plain file name"))
             .with_hint("give a name without folders, e.g. \"potential\""));
     }
-    let svg = render_svg(fig)?;
-    let pdf = encode::pdf_from_svg(&svg, &fig.provenance, fig.title.as_deref())?;
-    let png = render_png(fig)?;
+    let sc = scene::scene(fig)?;
+    write_scene(&sc, &fig.provenance, fig.title.as_deref(), dir, stem)
+}
+
+/// Render panels in a grid of `cols` columns (shared axes, one legend above; see [`render_panels`]) to
+/// `dir/stem.{svg,pdf,png}`.
+pub fn write_panels(
+    figs: &[Figure],
+    cols: usize,
+    look: &Look,
+    provenance: &str,
+    dir: &Path,
+    stem: &str,
+) -> Result<Vec<PathBuf>> {
+    if stem.is_empty() || stem.contains(['/', '\\']) {
+        return Err(Error::input(format!("figure file stem {stem:?} is not a plain file name")));
+    }
+    let sc = scene::scene_grid(figs, cols, look, None)?;
+    write_scene(&sc, provenance, None, dir, stem)
+}
+
+fn write_scene(
+    sc: &scene::Scene,
+    provenance: &str,
+    title: Option<&str>,
+    dir: &Path,
+    stem: &str,
+) -> Result<Vec<PathBuf>> {
+    let svg = encode::svg(sc, provenance, title)?;
+    let pdf = encode::pdf_from_svg(&svg, provenance, title)?;
+    let png = encode::png(&svg, sc, provenance, title)?;
     crate::output::ensure_dir(dir)?;
     let mut paths = Vec::new();
     for (ext, bytes) in [("svg", svg.as_bytes()), ("pdf", pdf.as_slice()), ("png", png.as_slice())] {

@@ -1,33 +1,80 @@
-//! Look of the figures: the colour palette, sizes in printer's points, dash patterns, the embedded font and
-//! the tick-label formatter.
+//! Look of the figures: the two styles (journal: serif STIX text, ticks inside on all four sides; classic:
+//! DejaVu Sans, ticks outside), the colour palette, the embedded fonts and the tick-label formatter.
 
-use crate::error::{Error, ErrorKind, Result};
-use std::sync::OnceLock;
+use crate::error::{Error, ErrorKind};
 
-/// Font family name under which the embedded DejaVu Sans is registered with the drawing library and looked
-/// up by the SVG-to-PDF converter.
-pub(crate) const FONT_FAMILY: &str = "DejaVu Sans";
+/// Family name of the embedded STIX General (serif, Times-like text that matches LaTeX documents set in
+/// Times/STIX, SIL Open Font License 1.1, `assets/fonts/`), as registered in the font database.
+pub(crate) const SERIF_FAMILY: &str = "STIXGeneral";
+/// Family name of the embedded DejaVu Sans (the `classic` look and the fallback for missing glyphs).
+pub(crate) const SANS_FAMILY: &str = "DejaVu Sans";
+/// The STIX General regular font file, embedded in the binary.
+pub(crate) const SERIF_FONT: &[u8] = include_bytes!("../../assets/fonts/STIXGeneral-Regular.otf");
 
-/// Figure width: one journal column, 8.5 cm, in printer's points (1 in = 72 pt = 2.54 cm).
-pub(crate) const WIDTH_PT: f64 = 8.5 / 2.54 * 72.0;
-/// Figure height in points (aspect 3:4, so two figures stack in a column).
-pub(crate) const HEIGHT_PT: f64 = WIDTH_PT * 0.75;
 /// Raster resolution of the PNG output, dots per inch.
 pub(crate) const PNG_DPI: f64 = 300.0;
-/// Device pixels per point in the SVG (and so the PDF): plotters snaps to whole pixels, so the vector
-/// outputs are drawn on a 4x finer grid than points and scaled back by the SVG's physical size.
-pub(crate) const SVG_PX_PER_PT: f64 = 4.0;
 
-/// Font sizes (em, points): axis labels and title, tick labels, legend and annotations.
-pub(crate) const LABEL_PT: f64 = 8.5;
-pub(crate) const TICK_PT: f64 = 7.5;
-pub(crate) const LEGEND_PT: f64 = 7.0;
-/// Stroke widths in points: curves, axes frame, reference lines.
-pub(crate) const CURVE_PT: f64 = 1.0;
-pub(crate) const FRAME_PT: f64 = 0.6;
-pub(crate) const REF_PT: f64 = 0.6;
-/// Marker radius in points.
-pub(crate) const MARKER_PT: f64 = 2.2;
+/// Sizes and choices of one look. Lengths in printer's points.
+#[derive(Debug, Clone, Copy)]
+pub(crate) struct Style {
+    /// Font family written into the SVG.
+    pub family: &'static str,
+    /// Axis labels, panel titles.
+    pub label_pt: f64,
+    /// Tick labels.
+    pub tick_pt: f64,
+    /// Legend, annotations, notes.
+    pub legend_pt: f64,
+    /// Curves, frame, reference lines.
+    pub curve_pt: f64,
+    pub frame_pt: f64,
+    pub ref_pt: f64,
+    /// Marker radius.
+    pub marker_pt: f64,
+    /// Major tick length; ticks point into the plot when `ticks_inside`.
+    pub tick_len: f64,
+    pub ticks_inside: bool,
+    /// Ticks on all four sides (else left and bottom only).
+    pub ticks_all_sides: bool,
+    /// Frame the legend.
+    pub legend_frame: bool,
+}
+
+impl Style {
+    /// The style of a look.
+    pub(crate) fn of(name: super::StyleName) -> Style {
+        match name {
+            super::StyleName::Journal => Style {
+                family: SERIF_FAMILY,
+                label_pt: 9.0,
+                tick_pt: 8.0,
+                legend_pt: 7.5,
+                curve_pt: 1.0,
+                frame_pt: 0.6,
+                ref_pt: 0.6,
+                marker_pt: 2.2,
+                tick_len: 3.5,
+                ticks_inside: true,
+                ticks_all_sides: true,
+                legend_frame: false,
+            },
+            super::StyleName::Classic => Style {
+                family: SANS_FAMILY,
+                label_pt: 8.5,
+                tick_pt: 7.5,
+                legend_pt: 7.0,
+                curve_pt: 1.0,
+                frame_pt: 0.6,
+                ref_pt: 0.6,
+                marker_pt: 2.2,
+                tick_len: 3.0,
+                ticks_inside: false,
+                ticks_all_sides: false,
+                legend_frame: true,
+            },
+        }
+    }
+}
 
 /// The Okabe-Ito colour-blind-safe palette (Okabe & Ito 2008, "Color Universal Design", eight colours),
 /// reordered so that the first colours differ most in lightness and stay apart in greyscale: blue,
@@ -64,19 +111,6 @@ pub(crate) fn category_fill(i: usize) -> (u8, u8, u8) {
     (mix(r), mix(g), mix(b))
 }
 
-/// Register DejaVu Sans (bundled with the program, so no system fonts are needed) with the drawing
-/// library, once per process. Returns an error if the font bytes are rejected.
-pub(crate) fn ensure_font() -> Result<()> {
-    static REGISTERED: OnceLock<std::result::Result<(), String>> = OnceLock::new();
-    REGISTERED
-        .get_or_init(|| {
-            plotters::style::register_font(FONT_FAMILY, plotters::style::FontStyle::Normal, dejavu::sans::regular())
-                .map_err(|_| "the bundled DejaVu Sans font could not be parsed".to_string())
-        })
-        .clone()
-        .map_err(render_error)
-}
-
 /// An error for a figure that could not be drawn or encoded (treated as an I/O-class failure: no output is
 /// written).
 pub(crate) fn render_error(msg: impl Into<String>) -> Error {
@@ -85,17 +119,6 @@ pub(crate) fn render_error(msg: impl Into<String>) -> Error {
         message: format!("drawing the figure failed: {}", msg.into()),
         hint: Some("this is a problem with the figure renderer, not with your scenario; please report it".into()),
     }
-}
-
-/// Number of decimals that tick labels on an axis spanning `span` need, for about six ticks.
-pub(crate) fn tick_decimals(span: f64) -> usize {
-    if span.is_nan() || span <= 0.0 || !span.is_finite() {
-        return 2;
-    }
-    // One decimal more than the step's leading digit needs, so steps like 0.25 print in full; trailing
-    // zeros are trimmed by `tick_label`.
-    let step = span / 6.0;
-    (1 - step.log10().floor() as i64).clamp(0, 8) as usize
 }
 
 /// Compact tick label: `decimals` places, trailing zeros removed, never `-0`; very large or small
@@ -138,13 +161,6 @@ mod tests {
         assert_eq!(tick_label(-0.25, 2), "\u{2212}0.25");
         assert_eq!(tick_label(150000.0, 0), "1.5e5");
         assert_eq!(tick_label(2e-5, 6), "2e\u{2212}5");
-    }
-
-    #[test]
-    fn decimals_follow_the_span() {
-        assert_eq!(tick_decimals(10.0), 1);
-        assert_eq!(tick_decimals(60.0), 0);
-        assert_eq!(tick_decimals(0.06), 3);
     }
 
     /// Luma with ITU-R BT.709 weights on the encoded values (common practice for a greyscale estimate).

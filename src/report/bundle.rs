@@ -5,7 +5,7 @@ use super::figures;
 use crate::error::{Error, Result};
 use crate::export;
 use crate::output::{ensure_dir, write_atomic};
-use crate::plot::write_figure;
+use crate::plot::{write_figure, write_panels, FigureOptions, StyleName};
 use crate::scan::{evaluate_lines, Axis, MapSpec};
 use crate::scenario::{Scenario, ShellKind, Which};
 use crate::statics::sweep::sweep;
@@ -21,6 +21,11 @@ pub struct ReportOptions {
     pub range: Option<(f64, f64)>,
     /// Map resolution (radius points, beta^2 points).
     pub map_size: (usize, usize),
+    /// A family of values of one parameter: figures of beta^2_crit(a0), sigma0(a), p0(a) with one curve per
+    /// value, and a multi-panel stability map, one panel per value.
+    pub family: Option<(String, Vec<f64>)>,
+    /// Figure control (style, size, limits, labels, legend); the journal style unless set.
+    pub figure: FigureOptions,
 }
 
 /// A radius range where a static timelike shell can sit, for plots: the outermost interval where both sides
@@ -44,6 +49,8 @@ fn overlap(a0: f64, a1: f64, b0: f64, b1: f64) -> f64 {
 struct Listing {
     dir: PathBuf,
     files: Vec<(PathBuf, String)>,
+    figure: FigureOptions,
+    notes: Vec<String>,
 }
 
 impl Listing {
@@ -54,7 +61,19 @@ impl Listing {
         Ok(())
     }
     fn figure(&mut self, fig: &crate::plot::Figure, stem: &str, what: &str) -> Result<()> {
-        for p in write_figure(fig, &self.dir, stem)? {
+        let mut fig = fig.clone();
+        self.figure.apply(&mut fig, StyleName::Journal);
+        let paths = match write_figure(&fig, &self.dir, stem) {
+            // A log axis asked for every figure cannot show one with values <= 0: draw that one linear.
+            Err(e) if e.kind == crate::error::ErrorKind::Input && (fig.look.log_x || fig.look.log_y) => {
+                self.notes.push(format!("{stem}: {}; drawn with linear axes instead.", e.message));
+                fig.look.log_x = false;
+                fig.look.log_y = false;
+                write_figure(&fig, &self.dir, stem)?
+            }
+            r => r?,
+        };
+        for p in paths {
             self.files.push((p, what.to_string()));
         }
         Ok(())
@@ -64,7 +83,7 @@ impl Listing {
 /// Write the report for `s` into `dir`; returns the files written with a one-line description each.
 pub fn write_report(s: &Scenario, dir: &Path, opts: &ReportOptions) -> Result<Vec<(PathBuf, String)>> {
     ensure_dir(dir)?;
-    let mut out = Listing { dir: dir.to_path_buf(), files: Vec::new() };
+    let mut out = Listing { dir: dir.to_path_buf(), files: Vec::new(), figure: opts.figure.clone(), notes: Vec::new() };
     let prov = s.provenance();
     // Side survey.
     let (slo, shi) = crate::metric::default_range(s);
@@ -86,7 +105,11 @@ pub fn write_report(s: &Scenario, dir: &Path, opts: &ReportOptions) -> Result<Ve
         ShellKind::Timelike => timelike_part(s, opts, &mut out)?,
     }
     // summary.md names every file.
-    let mut md = format!("# junctura report: {}\n\n`{}`\n\n| file | contents |\n| --- | --- |\n", s.name, prov);
+    let mut md = format!("# junctura report: {}\n\n`{}`\n\n", s.name, prov);
+    for n in &out.notes {
+        md.push_str(&format!("**Note:** {n}\n\n"));
+    }
+    md.push_str("| file | contents |\n| --- | --- |\n");
     for (p, what) in &out.files {
         let name = p.file_name().map(|n| n.to_string_lossy().to_string()).unwrap_or_default();
         md.push_str(&format!("| `{name}` | {what} |\n"));
@@ -94,6 +117,70 @@ pub fn write_report(s: &Scenario, dir: &Path, opts: &ReportOptions) -> Result<Ve
     md.push_str("\nEvery file carries the provenance line above (a comment in .csv/.tex, a key in .json, metadata in the figures).\n");
     out.put("summary.md", md.as_bytes(), "this list")?;
     Ok(out.files)
+}
+
+/// Family figures (one curve per value) and a multi-panel map (one panel per value, shared axes).
+fn family_part(
+    s: &Scenario,
+    name: &str,
+    values: &[f64],
+    (lo, hi): (f64, f64),
+    (nx, ny): (usize, usize),
+    out: &mut Listing,
+) -> Result<()> {
+    // The radius range covering every value's R-region.
+    let (mut flo, mut fhi) = (lo, hi);
+    for &v in values {
+        let mut sc = s.clone();
+        sc.params.set(name, v).map_err(|e| e.context(format!("--family {name}")))?;
+        if let Some((a, b)) = plot_range(&sc) {
+            flo = flo.min(a);
+            fhi = fhi.max(b);
+        }
+    }
+    let sym = s.symbols.unicode(name);
+    for (stem, fig) in figures::family_figures(s, name, values, flo, fhi)? {
+        let what = if stem.ends_with("beta2_critical") {
+            format!("critical beta^2 against a0 for {name} = each value, stable side shaded")
+        } else if stem.ends_with("sigma") {
+            format!("sigma0(a) for each value of {name}")
+        } else {
+            format!("p0(a) for each value of {name}")
+        };
+        out.figure(&fig, &stem, &what)?;
+    }
+    let mut panels = Vec::new();
+    for &v in values {
+        let mut sc = s.clone();
+        sc.params.set(name, v).map_err(|e| e.context(format!("--family {name}")))?;
+        let x = Axis::new(&sc, "radius", flo, fhi, (nx / 2).max(20))?;
+        let y = Axis::new(&sc, "beta2", -3.0, 3.0, (ny / 2).max(20))?;
+        let spec = MapSpec::new(&sc, x, y, None, (flo, fhi))?;
+        let cells: Vec<crate::scan::Cell> = evaluate_lines(&sc, &spec, 0..spec.n_lines())?.concat();
+        let mut fig = figures::map_figure_with(sc.provenance(), &spec, &cells, None, &sc.symbols);
+        fig.title = Some(format!("{sym} = {v}"));
+        panels.push(fig);
+    }
+    let cols = if panels.len() <= 1 { 1 } else { 2 };
+    let mut look = out.figure.look(StyleName::Journal);
+    look.log_x = false;
+    look.log_y = false;
+    if out.figure.width_cm.is_none() {
+        look.width_cm = 17.8;
+    }
+    if out.figure.aspect.is_none() {
+        look.aspect = 0.8;
+    }
+    let stem = format!("family_{name}_maps");
+    let prov = format!(
+        "{} | panels {name} = {}",
+        s.provenance(),
+        values.iter().map(|v| crate::export::num(*v)).collect::<Vec<_>>().join(", ")
+    );
+    for p in write_panels(&panels, cols, &look, &prov, &out.dir, &stem)? {
+        out.files.push((p, format!("stability maps over (a, beta^2), one panel per value of {name}, shared axes")));
+    }
+    Ok(())
 }
 
 fn pretty(v: &serde_json::Value) -> String {
@@ -140,12 +227,40 @@ fn put_derive(s: &Scenario, out: &mut Listing, r: f64, symbol: &str) -> Result<(
 }
 
 fn timelike_part(s: &Scenario, opts: &ReportOptions, out: &mut Listing) -> Result<()> {
-    let (lo, hi) = opts.range.or_else(|| plot_range(s)).ok_or_else(|| {
+    // Static radii are searched over the same range as `statics` (the scenario's default survey range, or
+    // the user's --from/--to); the plots cover the R-region where the shell can sit, widened to show every
+    // static radius found.
+    let search = opts.range.unwrap_or_else(|| crate::metric::default_range(s));
+    let statics = if s.shell.eos.is_some() {
+        Some(find_static_radii(s, search.0, search.1, &StaticsOptions::default())?)
+    } else {
+        out.notes.push(
+            "the scenario has no equation of state ([shell] pressure), so there are no static radii, potential or \
+             motion files; the maps are over (a, beta^2)."
+                .to_string(),
+        );
+        None
+    };
+    let (mut lo, mut hi) = opts.range.or_else(|| plot_range(s)).ok_or_else(|| {
         Error::numerical("no radius where both sides are R-regions: no static timelike shell")
             .with_hint("check the scenario with `junctura check`")
     })?;
-    let statics =
-        if s.shell.eos.is_some() { Some(find_static_radii(s, lo, hi, &StaticsOptions::default())?) } else { None };
+    if let (Some(st), None) = (&statics, opts.range) {
+        for r in &st.static_radii {
+            lo = lo.min(r.radius / 1.15);
+            hi = hi.max(r.radius * 1.15);
+        }
+    }
+    if let Some(st) = &statics {
+        if st.static_radii.is_empty() {
+            out.notes.push(format!(
+                "no static radius was found for the equation of state in a = {} .. {} (the range `statics` \
+                 searches); statics.csv and the table are empty and there is no potential figure.",
+                crate::export::num(search.0),
+                crate::export::num(search.1)
+            ));
+        }
+    }
     let r_ref = statics.as_ref().and_then(|st| st.static_radii.first().map(|r| r.radius)).unwrap_or((lo * hi).sqrt());
     put_derive(s, out, r_ref, "a")?;
     if let Some(st) = &statics {
@@ -193,8 +308,9 @@ fn timelike_part(s: &Scenario, opts: &ReportOptions, out: &mut Listing) -> Resul
             }
         }
     }
+    let ov = figures::overlays(s, lo, hi);
     out.figure(
-        &figures::sigma_pressure_figure(s, lo, hi),
+        &figures::sigma_pressure_figure_with(s, lo, hi, Some(&ov)),
         "sigma_pressure",
         "sigma0(a), p0(a) with energy-condition bands",
     )?;
@@ -212,15 +328,17 @@ fn timelike_part(s: &Scenario, opts: &ReportOptions, out: &mut Listing) -> Resul
     }
     out.put("map_radius_beta2.csv", csv.as_bytes(), "stability map over (a, beta^2): one row per cell")?;
     out.figure(
-        &figures::map_figure(s.provenance(), &spec, &cells),
+        &figures::map_figure_with(s.provenance(), &spec, &cells, Some(&ov), &s.symbols),
         "map_radius_beta2",
-        "stability regions over (a, beta^2) with the critical curve and energy-condition boundaries",
+        "stability regions over (a, beta^2) with the critical curve, the law's beta^2 line, energy-condition \
+         boundaries, static radii, horizons and photon orbits",
     )?;
+    if let Some((name, values)) = &opts.family {
+        family_part(s, name, values, (lo, hi), (nx, ny), out)?;
+    }
     if let Some((name, vlo, vhi, n)) = &opts.vary {
         if s.shell.eos.is_some() {
-            let values: Vec<f64> = (0..*n)
-                .map(|i| if i + 1 == *n { *vhi } else { vlo + (vhi - vlo) * i as f64 / (*n - 1).max(1) as f64 })
-                .collect();
+            let values: Vec<f64> = (0..*n).map(|i| crate::scan::grid_value(*vlo, *vhi, i, *n)).collect();
             let sw = sweep(s, name, &values, lo, hi, &StaticsOptions::default())?;
             out.put(
                 "sweep.csv",
@@ -228,11 +346,9 @@ fn timelike_part(s: &Scenario, opts: &ReportOptions, out: &mut Listing) -> Resul
                 &format!("branches of static radii as {name} varies"),
             )?;
             out.put("sweep.json", serde_json::to_string_pretty(&sw).unwrap_or_default().as_bytes(), "branches (JSON)")?;
-            out.figure(
-                &figures::sweep_figure(&sw),
-                "sweep",
-                "static branches: stable solid, unstable dashed, folds marked",
-            )?;
+            let mut fig = figures::sweep_figure(&sw);
+            fig.x_label = s.symbols.unicode(name);
+            out.figure(&fig, "sweep", "static branches: stable solid, unstable dashed, folds marked")?;
         }
     }
     Ok(())

@@ -50,10 +50,12 @@ pub fn phase_figure(j: &Junction<f64>, r: &EvolveReport) -> Figure {
     Figure {
         x_label: "R/M".into(),
         y_label: "dR/dτ".into(),
+        // The orbit first and the potential's curves on top, dashed in a contrasting colour: on an exact
+        // solution the two coincide, and the dashes let both show.
         series: vec![
+            Series { label: "orbit".into(), points: orbit, style: LineStyle::Solid, colour: 5 },
             Series { label: "±√(−V(R))".into(), points: root(1.0), style: LineStyle::Dashed, colour: 1 },
             Series { label: String::new(), points: root(-1.0), style: LineStyle::Dashed, colour: 1 },
-            Series { label: "orbit".into(), points: orbit, style: LineStyle::Solid, colour: 0 },
         ],
         markers: r
             .static_radius

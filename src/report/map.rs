@@ -113,6 +113,7 @@ pub fn write_map(
     lines: std::ops::Range<usize>,
     shard: Option<(usize, usize)>,
     dir: &Path,
+    fig_opts: &crate::plot::FigureOptions,
     progress: &dyn Fn(usize, usize),
 ) -> Result<Vec<PathBuf>> {
     let stem = match shard {
@@ -153,11 +154,20 @@ pub fn write_map(
     write_atomic(&json_path, json.as_bytes())?;
     let mut written = vec![csv_path, json_path];
     if keep_cells {
-        written.extend(crate::plot::write_figure(
-            &super::figures::map_figure(s.provenance(), spec, &classes),
-            dir,
-            "map",
-        )?);
+        let (lo, hi) = match (spec.x.kind, spec.y.kind) {
+            (crate::scan::AxisKind::Radius, _) => (spec.x.lo, spec.x.hi),
+            _ => spec.radius_range,
+        };
+        let ov = super::figures::overlays(s, lo, hi);
+        let mut fig = super::figures::map_figure_with(
+            crate::export::map::map_provenance(s, spec),
+            spec,
+            &classes,
+            Some(&ov),
+            &s.symbols,
+        );
+        fig_opts.apply(&mut fig, crate::plot::StyleName::Classic);
+        written.extend(crate::plot::write_figure(&fig, dir, "map")?);
     }
     Ok(written)
 }

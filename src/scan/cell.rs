@@ -72,7 +72,15 @@ pub struct Cell {
     pub energy_bits: u8,
     /// Number of static radii (maps without a radius axis), else 1 or 0.
     pub n_static: u8,
+    /// Maps without a radius axis: every static radius found, ascending (NaN after the last; at most
+    /// [`MAX_ROOTS`] are kept, `n_static` counts all).
+    pub roots: [f64; MAX_ROOTS],
+    /// The class of each of `roots` (as `CellClass as u8`; unused entries `NoStatic`).
+    pub root_classes: [u8; MAX_ROOTS],
 }
+
+/// Static radii kept per cell of a map without a radius axis.
+pub const MAX_ROOTS: usize = 4;
 
 impl Cell {
     fn empty(ix: usize, iy: usize, x: f64, y: f64, class: CellClass) -> Cell {
@@ -90,6 +98,8 @@ impl Cell {
             class,
             energy_bits: 0,
             n_static: 0,
+            roots: [f64::NAN; MAX_ROOTS],
+            root_classes: [CellClass::NoStatic as u8; MAX_ROOTS],
         }
     }
 }
@@ -435,6 +445,8 @@ impl<'a> Evaluator<'a> {
             class,
             energy_bits: bits,
             n_static: 1,
+            roots: [f64::NAN; MAX_ROOTS],
+            root_classes: [CellClass::NoStatic as u8; MAX_ROOTS],
         }
     }
 
@@ -450,18 +462,29 @@ impl<'a> Evaluator<'a> {
         let Ok(rep) = find_static_radii(&sc, lo, hi, &self.statics) else {
             return Cell::empty(ix, iy, x, y, CellClass::NoStatic);
         };
-        let pick = rep
-            .static_radii
-            .iter()
-            .find(|r| r.stability == Stability::Stable)
-            .or_else(|| rep.static_radii.iter().find(|r| r.stability == Stability::Marginal))
-            .or_else(|| rep.static_radii.first());
+        let pick = match self.spec.root_rule {
+            super::RootRule::AnyStable => rep
+                .static_radii
+                .iter()
+                .find(|r| r.stability == Stability::Stable)
+                .or_else(|| rep.static_radii.iter().find(|r| r.stability == Stability::Marginal))
+                .or_else(|| rep.static_radii.first()),
+            super::RootRule::Smallest => rep.static_radii.first(),
+            super::RootRule::Largest => rep.static_radii.last(),
+        };
         let Some(r) = pick else { return Cell::empty(ix, iy, x, y, CellClass::NoStatic) };
-        let class = match r.stability {
+        let class_of = |st: Stability| match st {
             Stability::Stable => CellClass::Stable,
             Stability::Unstable => CellClass::Unstable,
             Stability::Marginal => CellClass::Marginal,
         };
+        let class = class_of(r.stability);
+        let mut roots = [f64::NAN; MAX_ROOTS];
+        let mut root_classes = [CellClass::NoStatic as u8; MAX_ROOTS];
+        for (k, sr) in rep.static_radii.iter().take(MAX_ROOTS).enumerate() {
+            roots[k] = sr.radius;
+            root_classes[k] = class_of(sr.stability) as u8;
+        }
         Cell {
             ix: ix as u32,
             iy: iy as u32,
@@ -476,6 +499,8 @@ impl<'a> Evaluator<'a> {
             class,
             energy_bits: energy_bits(r.energy_conditions),
             n_static: rep.static_radii.len().min(255) as u8,
+            roots,
+            root_classes,
         }
     }
 }

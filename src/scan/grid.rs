@@ -55,17 +55,53 @@ impl Axis {
         Ok(Axis { kind, name: name.to_string(), lo, hi, n })
     }
 
-    /// Value at index i.
+    /// Value at index i: [`grid_value`].
     #[inline]
     pub fn value(&self, i: usize) -> f64 {
-        if self.n == 1 {
-            self.lo
-        } else if i + 1 == self.n {
-            self.hi
-        } else {
-            self.lo + (self.hi - self.lo) * i as f64 / (self.n - 1) as f64
+        grid_value(self.lo, self.hi, i, self.n)
+    }
+}
+
+/// The k-th of n grid values from lo to hi inclusive, lo + (hi - lo) k / (n - 1), evaluated in double-double
+/// arithmetic (about 106 bits) and returned as the double with the shortest decimal form within half a unit
+/// in the last place of the exact value. So 0..1.2 in 5 points gives 0.9 (printed "0.9"), not the
+/// 0.8999999999999999 that plain double arithmetic gives; both ends are returned exactly.
+pub fn grid_value(lo: f64, hi: f64, k: usize, n: usize) -> f64 {
+    if n <= 1 || k == 0 {
+        return lo;
+    }
+    if k + 1 >= n {
+        return hi;
+    }
+    // Error-free transformations (Knuth's two-sum, fused multiply-add products; common practice).
+    let two_sum = |a: f64, b: f64| {
+        let s = a + b;
+        let bb = s - a;
+        (s, (a - (s - bb)) + (b - bb))
+    };
+    let (kf, m) = (k as f64, (n - 1) as f64);
+    let (d, de) = two_sum(hi, -lo);
+    let p = d * kf;
+    let pe = d.mul_add(kf, -p) + de * kf;
+    let q = p / m;
+    let r = (-q).mul_add(m, p);
+    let q_lo = (r + pe) / m;
+    let (x, xe) = two_sum(lo, q);
+    let tail = xe + q_lo;
+    let (x, tail) = two_sum(x, tail);
+    if !x.is_finite() {
+        return x;
+    }
+    let ulp = (f64::from_bits(x.abs().to_bits() + 1) - x.abs()).abs();
+    // The shortest decimal (1 to 17 significant digits) within half an ulp of the exact value x + tail.
+    for digits in 1..=17 {
+        if let Ok(d) = format!("{:.*e}", digits - 1, x).parse::<f64>() {
+            if ((d - x) - tail).abs() <= 0.5 * ulp {
+                return d;
+            }
         }
     }
+    x
 }
 
 /// Where beta^2 comes from when it is not an axis.
@@ -82,6 +118,39 @@ pub enum Beta2Source {
     StaticRadii,
 }
 
+/// Which static radius decides a cell's class when a map without a radius axis finds several.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum RootRule {
+    /// The first stable radius, else the first marginal one, else the smallest.
+    #[default]
+    AnyStable,
+    /// The smallest radius.
+    Smallest,
+    /// The largest radius.
+    Largest,
+}
+
+impl RootRule {
+    /// Parse `any-stable`, `smallest` or `largest`.
+    pub fn parse(s: &str) -> Option<RootRule> {
+        match s {
+            "any-stable" => Some(RootRule::AnyStable),
+            "smallest" => Some(RootRule::Smallest),
+            "largest" => Some(RootRule::Largest),
+            _ => None,
+        }
+    }
+    /// The option's spelling.
+    pub fn name(self) -> &'static str {
+        match self {
+            RootRule::AnyStable => "any-stable",
+            RootRule::Smallest => "smallest",
+            RootRule::Largest => "largest",
+        }
+    }
+}
+
 /// A validated map.
 #[derive(Debug, Clone, Serialize, Deserialize)]
 pub struct MapSpec {
@@ -93,6 +162,9 @@ pub struct MapSpec {
     pub beta2: Beta2Source,
     /// Radius range for maps without a radius axis.
     pub radius_range: (f64, f64),
+    /// Which static radius decides the class of a cell with several (maps without a radius axis).
+    #[serde(default)]
+    pub root_rule: RootRule,
 }
 
 impl MapSpec {
@@ -140,7 +212,7 @@ impl MapSpec {
             return Err(Error::input(format!("{} x {} = {cells} cells is beyond what one run can address", x.n, y.n))
                 .with_hint("split the map with --shard K/N"));
         }
-        Ok(MapSpec { x, y, beta2: source, radius_range })
+        Ok(MapSpec { x, y, beta2: source, radius_range, root_rule: RootRule::AnyStable })
     }
 
     /// True when the lines run along the x axis index (because y is beta^2, cells of one x share the junction work).
@@ -174,5 +246,24 @@ impl MapSpec {
         } else {
             (j, line)
         }
+    }
+}
+
+#[cfg(test)]
+mod grid_tests {
+    use super::grid_value;
+
+    #[test]
+    fn grid_values_print_as_the_decimals_of_the_linspace_formula() {
+        // 0, 0.3, 0.6, 0.9, 1.2: plain f64 gives 1.2 * 3 / 4 = 0.8999999999999999 (common practice example).
+        let v: Vec<String> = (0..5).map(|k| format!("{}", grid_value(0.0, 1.2, k, 5))).collect();
+        assert_eq!(v, ["0", "0.3", "0.6", "0.9", "1.2"]);
+        let v: Vec<String> = (0..11).map(|k| format!("{}", grid_value(-0.5, 0.5, k, 11))).collect();
+        assert_eq!(v, ["-0.5", "-0.4", "-0.3", "-0.2", "-0.1", "0", "0.1", "0.2", "0.3", "0.4", "0.5"]);
+        // Values with no short decimal keep full precision.
+        let third = grid_value(0.0, 1.0, 1, 4);
+        assert!((third - 1.0 / 3.0).abs() <= f64::EPSILON);
+        assert_eq!(grid_value(2.1, 10.0, 0, 300), 2.1);
+        assert_eq!(grid_value(2.1, 10.0, 299, 300), 10.0);
     }
 }

@@ -16,7 +16,7 @@ pub mod fast;
 pub mod grid;
 
 pub use cell::{Cell, CellClass, Method, Summary};
-pub use grid::{Axis, AxisKind, MapSpec};
+pub use grid::{grid_value, Axis, AxisKind, MapSpec, RootRule};
 
 use crate::error::Result;
 use crate::scenario::Scenario;

@@ -47,6 +47,10 @@ pub struct Branch {
     pub points: Vec<BranchPoint>,
     /// Folds along the branch.
     pub folds: Vec<Fold>,
+    /// The traced curve as (parameter value, radius), in order along the branch: the pseudo-arclength
+    /// continuation steps, so it is dense where the branch turns (folds). For figures; not in the JSON.
+    #[serde(skip)]
+    pub curve: Vec<(f64, f64)>,
 }
 
 /// Result of a sweep.
@@ -215,6 +219,15 @@ fn trace(c: &Ctx, x0: [f64; 2], dir: f64, h0: f64, max_steps: usize) -> Vec<[f64
     pts
 }
 
+/// The point where the segment p-q of the traced curve crosses an end of the parameter range (v = 0 or 1 in
+/// scaled coordinates), as (parameter, radius).
+fn edge_point(c: &Ctx, p: [f64; 2], q: [f64; 2]) -> (f64, f64) {
+    let v = if p[1] < 0.0 || q[1] < 0.0 { 0.0 } else { 1.0 };
+    let t = if q[1] != p[1] { ((v - p[1]) / (q[1] - p[1])).clamp(0.0, 1.0) } else { 0.0 };
+    let (a, l) = c.point_of([p[0] + t * (q[0] - p[0]), v]);
+    (l, a)
+}
+
 /// Follow every branch of static radii as parameter `name` runs over `values` (sorted, at least 2),
 /// with radii in [a_lo, a_hi].
 pub fn sweep(
@@ -338,7 +351,23 @@ pub fn sweep_with_progress(
                 f.radius
             ));
         }
-        branches.push(Branch { id: branches.len() + 1, points, folds });
+        // The traced curve inside the parameter range, cut exactly at its ends (linear between the steps
+        // across an end, in the scaled coordinates).
+        let mut curve: Vec<(f64, f64)> = Vec::new();
+        let inside = |v: f64| (-1e-12..=1.0 + 1e-12).contains(&v);
+        for (k, x) in poly.iter().enumerate() {
+            if inside(x[1]) {
+                if k > 0 && !inside(poly[k - 1][1]) {
+                    curve.push(edge_point(&c, poly[k - 1], *x));
+                }
+                let (a, l) = c.point_of(*x);
+                curve.push((l, a));
+            } else if k > 0 && inside(poly[k - 1][1]) {
+                curve.push(edge_point(&c, poly[k - 1], *x));
+            }
+        }
+        curve.retain(|p| p.0.is_finite() && p.1.is_finite());
+        branches.push(Branch { id: branches.len() + 1, points, folds, curve });
     }
     Ok(SweepReport {
         scenario: s.name.clone(),

@@ -463,6 +463,9 @@ pub fn gcd(p: &Poly, q: &Poly) -> Poly {
     let cp = p.content_in(x);
     let cq = q.content_in(x);
     let c = gcd(&cp, &cq);
+    if coprime_in_image(p, q, x) {
+        return c;
+    }
     let mut a = p.div_exact(&cp).expect("content divides");
     let mut b = q.div_exact(&cq).expect("content divides");
     if a.degree(x) < b.degree(x) {
@@ -476,6 +479,96 @@ pub fn gcd(p: &Poly, q: &Poly) -> Poly {
     // b is zero (a is the gcd) or free of x (the primitive parts are coprime in x).
     let g = if b.is_zero() { primitive_in(&a, x) } else { Poly::one() };
     c.mul(&g).primitive()
+}
+
+/// The Mersenne prime 2^61 - 1 of the modular images.
+const P61: u64 = (1 << 61) - 1;
+
+fn mulmod(a: u64, b: u64) -> u64 {
+    ((a as u128 * b as u128) % P61 as u128) as u64
+}
+
+fn powmod(mut b: u64, mut e: u64) -> u64 {
+    let mut r = 1u64;
+    while e > 0 {
+        if e & 1 == 1 {
+            r = mulmod(r, b);
+        }
+        b = mulmod(b, b);
+        e >>= 1;
+    }
+    r
+}
+
+fn q_mod(c: &Q) -> Option<u64> {
+    let m = BigInt::from(P61);
+    let n = (c.numer() % &m + &m) % &m;
+    let d = (c.denom() % &m + &m) % &m;
+    let (n, d) = (n.to_u64_digits().1.first().copied().unwrap_or(0), d.to_u64_digits().1.first().copied().unwrap_or(0));
+    (d != 0).then(|| mulmod(n, powmod(d, P61 - 2)))
+}
+
+/// The univariate image mod 2^61 - 1 of p in x, the other variables replaced by fixed pseudo-random values.
+fn image(p: &Poly, x: usize) -> Option<Vec<u64>> {
+    let mut out = vec![0u64; p.degree(x) as usize + 1];
+    for (m, c) in &p.terms {
+        let mut t = q_mod(c)?;
+        let mut k = 0;
+        for &(v, e) in m {
+            if v == x {
+                k = e as usize;
+            } else {
+                let val = (0x9e37_79b9_7f4a_7c15u64.wrapping_mul(v as u64 + 1) >> 5) % P61;
+                t = mulmod(t, powmod(val, u64::from(e)));
+            }
+        }
+        out[k] = (out[k] + t) % P61;
+    }
+    Some(out)
+}
+
+fn trim(v: &mut Vec<u64>) {
+    while v.len() > 1 && *v.last().unwrap() == 0 {
+        v.pop();
+    }
+}
+
+/// True if the images of p and q (both containing x) keep their degrees in x and have a constant gcd mod
+/// the prime: then gcd(p, q) has degree 0 in x (the image of the true gcd divides the gcd of the images).
+fn coprime_in_image(p: &Poly, q: &Poly, x: usize) -> bool {
+    let (Some(mut a), Some(mut b)) = (image(p, x), image(q, x)) else { return false };
+    if *a.last().unwrap() == 0 || *b.last().unwrap() == 0 {
+        return false;
+    }
+    // Euclid mod the prime.
+    loop {
+        trim(&mut a);
+        trim(&mut b);
+        if b.len() == 1 {
+            return b[0] != 0;
+        }
+        if a.len() < b.len() {
+            std::mem::swap(&mut a, &mut b);
+            continue;
+        }
+        let inv = powmod(*b.last().unwrap(), P61 - 2);
+        while a.len() >= b.len() && !(a.len() == 1 && a[0] == 0) {
+            let f = mulmod(*a.last().unwrap(), inv);
+            let shift = a.len() - b.len();
+            for (i, bi) in b.iter().enumerate() {
+                a[i + shift] = (a[i + shift] + P61 - mulmod(f, *bi)) % P61;
+            }
+            a.pop();
+            trim(&mut a);
+            if a.len() == 1 && a[0] == 0 {
+                break;
+            }
+        }
+        if a.len() == 1 && a[0] == 0 {
+            return false;
+        }
+        std::mem::swap(&mut a, &mut b);
+    }
 }
 
 fn primitive_in(p: &Poly, x: usize) -> Poly {

@@ -95,7 +95,8 @@ pub fn render_all(cf: &ClosedForms, symbols: &Symbols) -> Vec<Rendered> {
         .collect()
 }
 
-fn header_lines(cf: &ClosedForms) -> Vec<String> {
+/// The comment lines that go with the formulas: state, conventions and notes.
+pub fn header_lines(cf: &ClosedForms) -> Vec<String> {
     let state = match (cf.state, cf.kind) {
         (ClosedState::Static, ShellKind::Timelike) => "static timelike shell at radius a",
         (ClosedState::Static, ShellKind::Spacelike) => "static spacelike surface r = R",
@@ -134,7 +135,10 @@ pub fn sympy(cf: &ClosedForms, symbols: &Symbols, provenance: &str) -> String {
     let mut vars: Vec<(String, String)> = cf.alg.param_names.iter().map(|p| (py_name(p), p.clone())).collect();
     for atom in cf.alg.atoms() {
         if let crate::algebra::AtomKind::Symbol(_, _, s) = atom {
-            vars.push((s.clone(), s.clone()));
+            // c0, c1 in beta2_crit = -c0/c1 are the quantities assigned above, not symbols.
+            if cf.get(s).is_none() {
+                vars.push((s.clone(), s.clone()));
+            }
         }
     }
     if !vars.is_empty() {

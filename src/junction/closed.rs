@@ -7,17 +7,16 @@
 //! equation S^s_s = eps (D-2) [K^theta_theta]/(8 pi), S^theta_theta = eps ([K^s_s] + (D-3) [K^theta_theta])/(8 pi)
 //! (Israel 1966; Poisson 2004 ch. 3), sigma = -S^tau_tau, p = S^theta_theta.
 //!
-//! Linear stability (Poisson & Visser 1995; Garcia, Lobo & Visser 2012): with Y = R [K^theta_theta] and
-//! V = (B_+ + B_-)/2 - dB^2/(4 Y^2) - Y^2/4 (dB = B_+ - B_-), the conservation law gives
-//! Y' = 8 pi p - (X_+ Phi_+' - X_- Phi_-') - (D-3) Y/R and, differentiating once more with
-//! p' = beta^2 sigma', sigma = -(D-2) Y/(8 pi R),
+//! Linear stability (Poisson & Visser 1995; Garcia, Lobo & Visser 2012): the pressure equation
+//! p = P(R, Rdot^2, Rddot) is linear in Rddot; along a motion Rddot = -V'(R)/2 and p - p0 = beta^2
+//! (sigma - sigma0), so to first order about a static radius
 //! ```text
-//! V''(a0) = (B_+'' + B_-'')/2 - (dB'^2 + dB dB'')/(2 Y^2) + 2 dB dB' Y'/Y^3 - 3 dB^2 Y'^2/(2 Y^4) - Y'^2/2
-//!           + (dB^2/(2 Y^3) - Y/2) Y'',      Y'' = Y''_0 + beta^2 Y''_1,
+//! V''(a0) = 2 (p0'(a0) - beta^2 sigma0'(a0)) / P_Rddot,   P_Rddot = (nu_+/W_+ - nu_-/W_-) / (8 pi),
 //! ```
-//! so V''(a0) = c0 + c1 beta^2 with c1 = (dB^2/(2 Y^3) - Y/2) Y''_1, Y''_1 = -(D-2)(Y'/a - Y/a^2).
+//! i.e. c0 = 2 p0'/P_Rddot, c1 = -2 sigma0'/P_Rddot. (The numeric path expands V along the motion instead;
+//! the independent SymPy reference checks that both routes agree.)
 
-use crate::algebra::{Alg, RatFun, Q};
+use crate::algebra::{Alg, AtomKind, RatFun, Q};
 use crate::error::{Error, Result};
 use crate::scenario::{Scenario, ShellKind, Which};
 use num_bigint::BigInt;
@@ -77,9 +76,7 @@ struct SideForms {
     a: RatFun,
     b: RatFun,
     db: RatFun,
-    d2b: RatFun,
     phi: RatFun,
-    dphi: RatFun,
 }
 
 /// Omega_n = 2 pi^((n+1)/2) / Gamma((n+1)/2) as a rational times a power of pi (recursion of
@@ -123,10 +120,8 @@ pub fn closed_forms(s: &Scenario, state: ClosedState) -> Result<ClosedForms> {
         }
         let da = alg.derivative(&a);
         let db = alg.derivative(&b);
-        let d2b = alg.derivative(&db);
         let half = RatFun::frac(1, 2);
         let phi = alg.sub(&alg.mul(&half, &alg.div(&da, &a)), &alg.mul(&half, &alg.div(&db, &b)));
-        let dphi = if state == ClosedState::Static { alg.derivative(&phi) } else { RatFun::int(0) };
         let static_ok = match s.shell.kind {
             ShellKind::Timelike => side.keep.is_r_region(),
             ShellKind::Spacelike => !side.keep.is_r_region(),
@@ -139,7 +134,7 @@ pub fn closed_forms(s: &Scenario, state: ClosedState) -> Result<ClosedForms> {
             ))
             .with_hint("use --state moving for the general shell state"));
         }
-        sides.push(SideForms { nu: side.normal_sign(), a, b, db, d2b, phi, dphi });
+        sides.push(SideForms { nu: side.normal_sign(), a, b, db, phi });
     }
     let pool: Vec<RatFun> = sides.iter().flat_map(|sd| [sd.a.clone(), sd.b.clone()]).collect();
     let n = i64::from(s.dimension - 2);
@@ -229,13 +224,22 @@ pub fn closed_forms(s: &Scenario, state: ClosedState) -> Result<ClosedForms> {
             if st == ClosedState::Static && alg.sub(&x[1], &x[0]).is_zero() {
                 notes.push("[K^theta_theta] vanishes identically (the two sides are the same spacetime with the same orientation): no shell, no stability coefficients".into());
             } else if st == ClosedState::Static {
-                let (c0, c1) = v2_coefficients(&mut alg, &sides, &x, &p, n);
+                let (c0, c1) = v2_coefficients(&mut alg, &sides, &sigma, &p);
                 put("c0", "c0(a)".into(), "c_{0}(a)".into(), c0.clone());
                 put("c1", "c1(a)".into(), "c_{1}(a)".into(), c1.clone());
                 if c1.is_zero() {
                     notes.push("V''(a0) does not depend on beta^2 here (c1 = 0): no critical beta^2".into());
                 } else {
-                    let crit = alg.neg(&alg.div(&c0, &c1));
+                    // With two different square roots in c1 the rationalised quotient grows far longer than
+                    // the quotient itself: then it is printed as -c0/c1.
+                    let roots = c1.num.vars().into_iter().filter(|&v| matches!(alg.atom(v), AtomKind::Sqrt(_))).count();
+                    let crit = if roots >= 2 {
+                        let s0 = alg.symbol("c0", "c_{0}(a)", "c0");
+                        let s1 = alg.symbol("c1", "c_{1}(a)", "c1");
+                        alg.neg(&alg.div(&s0, &s1))
+                    } else {
+                        alg.neg(&alg.div(&c0, &c1))
+                    };
                     put("beta2_crit", "beta2_crit(a)".into(), "\\beta^{2}_{\\mathrm{crit}}(a)".into(), crit);
                 }
                 notes.push("V''(a0) = c0 + c1 beta^2 at a static radius a0 (beta^2 = dp/dsigma there); stable where V''(a0) > 0, beta2_crit = -c0/c1".into());
@@ -252,40 +256,21 @@ pub fn closed_forms(s: &Scenario, state: ClosedState) -> Result<ClosedForms> {
     Ok(ClosedForms { alg, quantities: out, state, kind: s.shell.kind, dimension: s.dimension, pool, radius, notes })
 }
 
-/// c0 and c1 of V''(a0) = c0 + c1 beta^2 for a static timelike shell (module docs).
-fn v2_coefficients(alg: &mut Alg, sides: &[SideForms], x: &[RatFun], p0: &RatFun, n: i64) -> (RatFun, RatFun) {
-    let a = alg.radius();
+/// c0 and c1 of V''(a0) = c0 + c1 beta^2 for a static timelike shell (module docs): linearising the
+/// pressure equation p = P(R, Rdot^2, Rddot) about the static state with Rddot = -V'(R)/2 and
+/// p - p0 = beta^2 (sigma - sigma0) gives V''(a0) = 2 (p0'(a) - beta^2 sigma0'(a)) / P_Rddot, with
+/// P_Rddot = (nu_+/W_+ - nu_-/W_-)/(8 pi) the coefficient of Rddot in p.
+fn v2_coefficients(alg: &mut Alg, sides: &[SideForms], sigma0: &RatFun, p0: &RatFun) -> (RatFun, RatFun) {
     let pi8 = alg.scale(&alg.pi(), &q(8));
-    let y0 = alg.sub(&x[1], &x[0]);
-    let db = alg.sub(&sides[1].b, &sides[0].b);
-    let ddb = alg.sub(&sides[1].db, &sides[0].db);
-    let d2db = alg.sub(&sides[1].d2b, &sides[0].d2b);
-    let flux = alg.sub(&alg.mul(&x[1], &sides[1].phi), &alg.mul(&x[0], &sides[0].phi));
-    let y_over_a = alg.div(&y0, &a);
-    let y1 = alg.sub(&alg.sub(&alg.mul(&pi8, p0), &flux), &alg.scale(&y_over_a, &q(n - 1)));
-    let y0sq = alg.mul(&y0, &y0);
-    // X_+' and X_-' along the motion.
-    let t = alg.sub(&alg.div(&ddb, &y0), &alg.div(&alg.mul(&db, &y1), &y0sq));
-    let half = Q::new(1.into(), 2.into());
-    let xp_d = alg.scale(&alg.add(&y1, &t), &half);
-    let xm_d = alg.scale(&alg.sub(&t, &y1), &half);
-    let dflux = alg.sub(
-        &alg.add(&alg.mul(&xp_d, &sides[1].phi), &alg.mul(&x[1], &sides[1].dphi)),
-        &alg.add(&alg.mul(&xm_d, &sides[0].phi), &alg.mul(&x[0], &sides[0].dphi)),
-    );
-    let g = alg.sub(&alg.div(&y1, &a), &alg.div(&y0, &alg.mul(&a, &a)));
-    let y2_0 = alg.neg(&alg.add(&dflux, &alg.scale(&g, &q(n - 1))));
-    let y2_1 = alg.scale(&g, &q(-n));
-    let y0_3 = alg.mul(&y0sq, &y0);
-    let y0_4 = alg.mul(&y0sq, &y0sq);
-    let d2_sum = alg.scale(&alg.add(&sides[1].d2b, &sides[0].d2b), &half);
-    let t1 = alg.div(&alg.add(&alg.mul(&ddb, &ddb), &alg.mul(&db, &d2db)), &alg.scale(&y0sq, &q(2)));
-    let t2 = alg.div(&alg.scale(&alg.mul(&alg.mul(&db, &ddb), &y1), &q(2)), &y0_3);
-    let t3 = alg.div(&alg.scale(&alg.mul(&alg.mul(&db, &db), &alg.mul(&y1, &y1)), &q(3)), &alg.scale(&y0_4, &q(2)));
-    let t4 = alg.scale(&alg.mul(&y1, &y1), &half);
-    let s = alg.sub(&alg.sub(&alg.add(&alg.sub(&d2_sum, &t1), &t2), &t3), &t4);
-    let k = alg.sub(&alg.div(&alg.mul(&db, &db), &alg.scale(&y0_3, &q(2))), &alg.scale(&y0, &half));
-    let c0 = alg.add(&s, &alg.mul(&k, &y2_0));
-    let c1 = alg.mul(&k, &y2_1);
-    (c0, c1)
+    let mut coef = RatFun::int(0);
+    for (k, sd) in sides.iter().enumerate() {
+        let w = alg.sqrt(&sd.b);
+        let t = alg.div(&RatFun::int(sd.nu as i64), &w);
+        coef = if k == 1 { alg.add(&coef, &t) } else { alg.sub(&coef, &t) };
+    }
+    let p_rddot = alg.div(&coef, &pi8);
+    let dp = alg.derivative(p0);
+    let ds = alg.derivative(sigma0);
+    let two_over = alg.div(&RatFun::int(2), &p_rddot);
+    (alg.mul(&two_over, &dp), alg.neg(&alg.mul(&two_over, &ds)))
 }

@@ -122,6 +122,19 @@ pub fn latex_string_width(s: &str) -> f64 {
     atom_width(s)
 }
 
+/// Approximate width in points of one glyph in 10 pt Computer Modern math italic.
+fn glyph(c: char) -> f64 {
+    match c {
+        '0'..='9' => 5.0,
+        'm' | 'w' => 8.8,
+        'M' | 'W' => 9.8,
+        'i' | 'j' | 'l' | '\'' => 3.5,
+        'A'..='Z' => 7.8,
+        'a'..='z' => 5.7,
+        _ => 6.0,
+    }
+}
+
 /// Width of a LaTeX atom string such as `m`, `\lambda`, `q_{2}`, `\mathrm{mu}`.
 fn atom_width(s: &str) -> f64 {
     let mut w = 0.0;
@@ -146,7 +159,7 @@ fn atom_width(s: &str) -> f64 {
             '_' | '^' => script = 0.7,
             '{' | '}' => {}
             ' ' => {}
-            _ => w += CH * script,
+            c => w += glyph(c) * script,
         }
     }
     w.max(CH * 0.7)
@@ -160,7 +173,7 @@ fn lx(d: &Disp, n: &Names) -> (String, f64) {
     match d {
         Disp::Int(i) => {
             let s = i.to_string();
-            let w = CH * s.len() as f64;
+            let w = 5.0 * s.len() as f64;
             (s, w)
         }
         Disp::Sym(v) => (n.latex[*v].clone(), atom_width(&n.latex[*v])),

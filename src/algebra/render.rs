@@ -371,8 +371,11 @@ fn break_prod(v: &[Disp], n: &Names, sign: &str, sw: f64, first: f64, rest: f64)
     Some(lines)
 }
 
+/// Terms of a sum: (negative?, term).
+type SumTerms = Vec<(bool, Disp)>;
+
 /// Split a numerator into (prefactor, sum): `c m (sum)` or a bare sum.
-fn split_sum_factor(a: &Disp) -> Option<(Option<Disp>, Vec<(bool, Disp)>)> {
+fn split_sum_factor(a: &Disp) -> Option<(Option<Disp>, SumTerms)> {
     match a {
         Disp::Sum(t) => Some((None, t.clone())),
         Disp::Prod(v) => {

@@ -249,7 +249,6 @@ pub fn closed_forms(s: &Scenario, state: ClosedState) -> Result<ClosedForms> {
             let arg = if st == ClosedState::Static { "(R)" } else { "" };
             put("S_ll", format!("S^l_l{arg}"), format!("S^{{l}}{{}}_{{l}}{arg}"), s_ss.clone());
             put("S_thth", format!("S^theta_theta{arg}"), format!("S^{{\\theta}}{{}}_{{\\theta}}{arg}"), s_thth.clone());
-            put("flux", format!("Xi{arg}"), format!("\\Xi{arg}"), flux.clone());
             notes.push("spacelike shell: S^l_l and S^theta_theta are the mixed components of the surface stress tensor along the shell (l: proper length, the Killing t direction inside the horizon); they are not an energy density and a pressure".into());
         }
     }

@@ -327,3 +327,24 @@ fn closed_forms_are_deterministic() {
     let b = junctura::export::closed::text(&closed_forms(&s, ClosedState::Static).unwrap(), &s.symbols, "p");
     assert_eq!(a, b);
 }
+
+/// The command: every format runs on a shipped scenario, a bad width is refused with exit code 2 and a hint.
+#[test]
+fn closed_form_command_formats_and_errors() {
+    let run = |args: &[&str]| std::process::Command::new(env!("CARGO_BIN_EXE_junctura")).args(args).output().unwrap();
+    let f = concat!(env!("CARGO_MANIFEST_DIR"), "/scenarios/schwarzschild-wormhole-linear.toml");
+    let text = String::from_utf8(run(&["closed-form", f]).stdout).unwrap();
+    assert!(text.contains("sigma0(a) = -sqrt(1 - 2*m/a)/(2*pi*a)"), "{text}");
+    let py = String::from_utf8(run(&["closed-form", f, "--format", "sympy"]).stdout).unwrap();
+    assert!(
+        py.contains("a = symbols('a', positive=True)") && py.contains("sigma0 = -sqrt(1 - 2*m/a)/(2*pi*a)"),
+        "{py}"
+    );
+    let js: serde_json::Value =
+        serde_json::from_slice(&run(&["closed-form", f, "--format", "json", "--state", "moving"]).stdout).unwrap();
+    assert_eq!(js["state"], "moving");
+    assert!(js["quantities"].as_array().unwrap().iter().any(|q| q["id"] == "sigma"));
+    let bad = run(&["closed-form", f, "--width", "wide"]);
+    assert_eq!(bad.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&bad.stderr).contains("--width wide"));
+}

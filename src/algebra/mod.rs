@@ -9,7 +9,8 @@
 //! let a = alg.radius();
 //! let m = alg.param(0);
 //! // B = 1 - 2m/a and (sqrt B)^2 = B exactly.
-//! let b = alg.sub(&RatFun::int(1), &alg.div(&alg.scale(&m, &2.into()), &a));
+//! let two_m = alg.mul(&RatFun::int(2), &m);
+//! let b = alg.sub(&RatFun::int(1), &alg.div(&two_m, &a));
 //! let s = alg.sqrt(&b);
 //! assert_eq!(alg.mul(&s, &s), b);
 //! ```

@@ -27,6 +27,7 @@
 //! ```
 #![warn(missing_docs)]
 
+pub mod algebra;
 pub mod dynamics;
 pub mod error;
 pub mod export;

@@ -23,6 +23,12 @@ pub struct Args {
     /// Output format.
     #[arg(long, value_enum, default_value_t = Format::Text)]
     format: Format,
+    /// With --format latex: text width of the closed forms, `column` (8.5 cm), `page` (17 cm) or cm.
+    #[arg(long, default_value = "column")]
+    width: String,
+    /// With --format latex: equation numbers.
+    #[arg(long, value_enum, default_value_t = super::closed::Numbering::On)]
+    numbering: super::closed::Numbering,
 }
 
 pub fn run(args: Args) -> Result<()> {
@@ -50,7 +56,11 @@ pub fn run(args: Args) -> Result<()> {
             for w in &rep.warnings {
                 warn(w);
             }
-            print_stdout(&latex(&rep))
+            let layout = junctura::export::closed::LatexLayout {
+                width_pt: super::closed::parse_width(&args.width)?,
+                numbered: args.numbering == super::closed::Numbering::On,
+            };
+            print_stdout(&latex(&rep, &s, &layout))
         }
     }
     Ok(())

@@ -2,6 +2,7 @@
 
 mod chain;
 mod check;
+mod closed;
 mod common;
 mod derive;
 mod evolve;
@@ -27,6 +28,9 @@ enum Command {
     /// Junction quantities at one shell state: sigma, p (or S^l_l, S^theta_theta), potential, mass,
     /// energy conditions, linear stability; formulas as text or LaTeX.
     Derive(derive::Args),
+    /// Exact, simplified closed forms of the junction quantities in the scenario's own metric (text, LaTeX,
+    /// SymPy): sigma0(a), p0(a), V(a), c0, c1, beta^2_crit, shell mass, energy-condition combinations.
+    ClosedForm(closed::Args),
     /// Every static radius of the scenario's equation of state in a range, each with its linear stability.
     Statics(statics::StaticsArgs),
     /// Solve for a parameter that puts a static shell at a radius, or for static marginally stable shells.
@@ -85,6 +89,7 @@ pub fn run() -> i32 {
     let result = match cli.command {
         Command::Check(a) => check::run(a),
         Command::Derive(a) => derive::run(a),
+        Command::ClosedForm(a) => closed::run(a),
         Command::Statics(a) => statics::run_statics(a),
         Command::Tune(a) => statics::run_tune(a),
         Command::Sweep(a) => statics::run_sweep(a),

@@ -1,7 +1,10 @@
 //! `derive` as readable text and as LaTeX.
 
+use super::closed::LatexLayout;
 use super::{latex_num, num};
+use crate::junction::closed::{closed_forms, ClosedState};
 use crate::report::derive::DeriveReport;
+use crate::scenario::Scenario;
 
 /// Readable summary: formulas first, then the values.
 pub fn text(r: &DeriveReport) -> String {
@@ -99,8 +102,10 @@ pub fn text(r: &DeriveReport) -> String {
     o
 }
 
-/// LaTeX: the formulas in an `align` environment and the values in a small table (amsmath, booktabs).
-pub fn latex(r: &DeriveReport) -> String {
+/// LaTeX: the general template as a short comment preamble, the closed forms of the scenario's own metric
+/// (`junction::closed`, simplified, laid out for `layout`; static forms for a shell at rest, the general
+/// state otherwise) and the values in a small table (amsmath, booktabs).
+pub fn latex(r: &DeriveReport, s: &Scenario, layout: &LatexLayout) -> String {
     let mut o = String::new();
     o.push_str(&format!("% {}\n% requires \\usepackage{{amsmath,booktabs}}\n", r.provenance));
     o.push_str(&format!(
@@ -114,12 +119,27 @@ pub fn latex(r: &DeriveReport) -> String {
         r.plus.b_expr,
         r.plus.keep
     ));
-    o.push_str("\\begin{align}\n");
-    let n = r.formulas.len();
-    for (i, f) in r.formulas.iter().enumerate() {
-        o.push_str(&format!("  {}{}\n", f.latex, if i + 1 < n { " \\\\" } else { "" }));
+    o.push_str("% general template (sides: + plus, - minus):\n");
+    for f in &r.formulas {
+        o.push_str(&format!("%   {}\n", f.text));
     }
-    o.push_str("\\end{align}\n");
+    let state = if r.velocity == 0.0 && r.acceleration == 0.0 { ClosedState::Static } else { ClosedState::Moving };
+    match closed_forms(s, state) {
+        Ok(cf) => {
+            for h in super::closed::header_lines(&cf) {
+                o.push_str(&format!("% {h}\n"));
+            }
+            o.push_str(&super::closed::latex_block(&cf, &s.symbols, layout));
+        }
+        Err(e) => {
+            o.push_str(&format!("% no closed forms: {e}\n\\begin{{align*}}\n"));
+            let n = r.formulas.len();
+            for (i, f) in r.formulas.iter().enumerate() {
+                o.push_str(&format!("  {}{}\n", f.latex, if i + 1 < n { " \\\\" } else { "" }));
+            }
+            o.push_str("\\end{align*}\n");
+        }
+    }
     o.push_str("\\begin{tabular}{lr}\n\\toprule\nquantity & value \\\\\n\\midrule\n");
     o.push_str(&format!("$R$ & ${}$ \\\\\n", latex_num(r.radius)));
     if let (Some(s), Some(p)) = (r.sigma, r.pressure) {

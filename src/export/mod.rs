@@ -1,5 +1,6 @@
 //! Pure renderers: reports in, text/LaTeX/CSV bytes out. Nothing here writes files (see `output`).
 
+pub mod closed;
 pub mod derive;
 pub mod evolve;
 pub mod map;

@@ -17,6 +17,7 @@
 //! derivative with respect to a parameter is wanted); radial derivatives of A and B come from third-order dual
 //! numbers, exact to rounding.
 
+pub mod closed;
 pub mod conditions;
 pub mod formula;
 pub mod lanczos;

@@ -215,7 +215,7 @@ fn put_derive(s: &Scenario, out: &mut Listing, r: f64, symbol: &str) -> Result<(
     let rep = derive(s, State::at_rest(r))?;
     out.put(
         "formulas.tex",
-        export::derive::latex(&rep).as_bytes(),
+        export::derive::latex(&rep, s, &export::closed::LatexLayout::default()).as_bytes(),
         &format!("junction formulas (LaTeX, amsmath) and values at {symbol} = {r}"),
     )?;
     out.put(

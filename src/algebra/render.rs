@@ -497,7 +497,6 @@ fn break_sum(terms: &[(bool, Disp)], n: &Names, head: &str, first: f64, rest: f6
             // Not breakable after what is already on this line: start the term on a fresh line.
             None if cur_w > 0.0 => {
                 lines.push(std::mem::take(&mut cur));
-                limit = rest;
                 latex_lines(t, n, rest - ow, rest).filter(|sub| sub.len() > 1)?
             }
             None => return None,

@@ -169,6 +169,15 @@ class Scenario:
         conditions, stability, and the formulas (``formulas``: text and LaTeX)."""
         return _result("DeriveResult", self._m.derive(float(radius), float(velocity), float(acceleration)))
 
+    def closed_forms(self, state="static", width="column", numbered=True):
+        """Exact closed forms of the junction quantities in this scenario's metric, parameters symbolic.
+        ``state="static"``: sigma0(a), p0(a), the energy-condition combinations, shell mass, flux term, V(a),
+        c0, c1 and beta^2_crit; ``"moving"``: sigma, p (or S^l_l, S^theta_theta) at R, Rdot, Rddot.
+        ``quantities`` lists each one (``id``, ``lhs``, ``text``, ``sympy``, ``latex``); ``text``, ``sympy``
+        (a snippet that defines every quantity with SymPy) and ``latex`` (an amsmath ``align`` block laid out
+        for ``width``: ``"column"``, ``"page"`` or centimetres) hold the whole set."""
+        return _result("ClosedForms", self._m.closed_forms(str(state), str(width), bool(numbered)))
+
     def statics(self, from_=None, to=None):
         """Every static radius of the equation of state in a radius range, each with its linear stability.
         Figure: ``potential``."""

@@ -186,6 +186,40 @@ impl Model {
         bundle(py, &r, vec![])
     }
 
+    /// Exact closed forms of the junction quantities in the scenario's own metric (`closed-form`): every
+    /// quantity as text, SymPy and one-line LaTeX (`quantities`), and the whole set as a text listing, a
+    /// SymPy snippet and an amsmath `align` block laid out for `width` (`column`, `page` or centimetres).
+    #[pyo3(signature = (state="static", width="column", numbered=true))]
+    fn closed_forms<'py>(
+        &self,
+        py: Python<'py>,
+        state: &str,
+        width: &str,
+        numbered: bool,
+    ) -> PyResult<Bound<'py, PyDict>> {
+        use junctura::export::closed as render;
+        use junctura::junction::closed::{closed_forms, ClosedState};
+        let state = match state {
+            "static" => ClosedState::Static,
+            "moving" => ClosedState::Moving,
+            other => {
+                return Err(Error::input(format!("state {other:?}: not \"static\" or \"moving\""))
+                    .with_hint("state=\"static\" (sigma0(a), p0(a), V, c0, c1, ...) or state=\"moving\""))
+                .py(py)
+            }
+        };
+        let width_pt = render::parse_width(width).py(py)?;
+        let s = &self.s;
+        let cf = py.detach(|| closed_forms(s, state).map_err(|e| e.context(s.origin.label()))).py(py)?;
+        let prov = s.provenance();
+        let layout = render::LatexLayout { width_pt, numbered };
+        let mut v = render::json(&cf, &s.symbols, &prov);
+        v["text"] = render::text(&cf, &s.symbols, &prov).into();
+        v["sympy"] = render::sympy(&cf, &s.symbols, &prov).into();
+        v["latex"] = render::latex(&cf, &s.symbols, &layout, &prov).into();
+        bundle(py, &v, vec![])
+    }
+
     /// Every static radius of the law in a radius range (`statics`), with the potential figure.
     #[pyo3(signature = (from_=None, to=None))]
     fn statics<'py>(&self, py: Python<'py>, from_: Option<f64>, to: Option<f64>) -> PyResult<Bound<'py, PyDict>> {

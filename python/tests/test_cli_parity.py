@@ -133,3 +133,24 @@ def test_evolve_time_series_matches_the_cli_csv(cli):
     got = np.column_stack([s.tau, s.radius, s.rdot, s.sigma, s.pressure, s.constraint, s.n_r])
     assert got.dtype == np.float64
     assert np.array_equal(got, np.array(rows, dtype=float))
+
+
+@pytest.mark.parametrize("path", SCENARIOS, ids=IDS)
+def test_closed_forms_match_the_cli(path, cli, cli_json):
+    p = rel(path)
+    sc = junctura.Scenario.load(p)
+    for state in ["static", "moving"]:
+        cf = sc.closed_forms(state=state)
+        want = cli_json("closed-form", p, "--state", state)
+        got = cf.to_dict()
+        for key in ["text", "sympy", "latex"]:
+            got.pop(key)
+        same(got, want)
+        assert cf.text == cli("closed-form", p, "--state", state).stdout
+        assert cf.sympy == cli("closed-form", p, "--state", state, "--format", "sympy").stdout
+        for width, numbered in [("column", True), ("11", False)]:
+            tex = cli(
+                "closed-form", p, "--state", state, "--format", "latex", "--width", width,
+                "--numbering", "on" if numbered else "off",
+            ).stdout
+            assert sc.closed_forms(state=state, width=width, numbered=numbered).latex == tex

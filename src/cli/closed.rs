@@ -2,10 +2,10 @@
 
 use super::common::ScenarioArgs;
 use clap::ValueEnum;
-use junctura::export::closed::{self, LatexLayout, COLUMN_PT, PAGE_PT};
+use junctura::export::closed::{self, parse_width, LatexLayout};
 use junctura::junction::closed::{closed_forms, ClosedState};
 use junctura::output::print_stdout;
-use junctura::{Error, Result};
+use junctura::Result;
 
 /// Output format of `closed-form`.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
@@ -55,24 +55,6 @@ pub struct Args {
     /// Static shell or general moving state.
     #[arg(long, value_enum, default_value_t = StateArg::Static)]
     state: StateArg,
-}
-
-/// Parse `--width`: `column`, `page` or centimetres, into TeX points.
-pub fn parse_width(w: &str) -> Result<f64> {
-    match w {
-        "column" => Ok(COLUMN_PT),
-        "page" => Ok(PAGE_PT),
-        other => {
-            let cm: f64 = other.trim_end_matches("cm").parse().map_err(|_| {
-                Error::input(format!("--width {other}: not `column`, `page` or a width in cm"))
-                    .with_hint("e.g. --width column, --width page, --width 12.5")
-            })?;
-            if !(cm.is_finite() && (3.0..=100.0).contains(&cm)) {
-                return Err(Error::input(format!("--width {other}: a text width between 3 and 100 cm is expected")));
-            }
-            Ok(cm / 2.54 * 72.27)
-        }
-    }
 }
 
 pub fn run(args: Args) -> Result<()> {

@@ -57,7 +57,7 @@ pub fn run(args: Args) -> Result<()> {
                 warn(w);
             }
             let layout = junctura::export::closed::LatexLayout {
-                width_pt: super::closed::parse_width(&args.width)?,
+                width_pt: junctura::export::closed::parse_width(&args.width)?,
                 numbered: args.numbering == super::closed::Numbering::On,
             };
             print_stdout(&latex(&rep, &s, &layout))

@@ -14,6 +14,24 @@ pub const COLUMN_PT: f64 = 8.5 / 2.54 * 72.27;
 /// Width of a full page of text (17 cm) in TeX points.
 pub const PAGE_PT: f64 = 17.0 / 2.54 * 72.27;
 
+/// A LaTeX text width (`--width`): `column` (8.5 cm), `page` (17 cm) or centimetres, into TeX points.
+pub fn parse_width(w: &str) -> crate::Result<f64> {
+    match w {
+        "column" => Ok(COLUMN_PT),
+        "page" => Ok(PAGE_PT),
+        other => {
+            let cm: f64 = other.trim_end_matches("cm").parse().map_err(|_| {
+                crate::Error::input(format!("--width {other}: not `column`, `page` or a width in cm"))
+                    .with_hint("e.g. --width column, --width page, --width 12.5")
+            })?;
+            if !(cm.is_finite() && (3.0..=100.0).contains(&cm)) {
+                return Err(crate::Error::input(format!("--width {other}: a text width between 3 and 100 cm is expected")));
+            }
+            Ok(cm / 2.54 * 72.27)
+        }
+    }
+}
+
 /// How the LaTeX is laid out.
 #[derive(Debug, Clone, Copy)]
 pub struct LatexLayout {

@@ -206,13 +206,43 @@ class Scenario:
         """Counts only (no cells kept): the numbers of ``map --summary``."""
         return _result("MapSummary", self._m.map_summary(_axis(x, "x"), _axis(y, "y"), beta2, from_, to))
 
-    def evolve(self, radius, duration, kick=None, velocity=None, max_turns=20, ensemble=None):
-        """Integrate the nonlinear motion from the static radius ``radius``: at rest at ``radius + kick``, or
-        at ``radius`` with dR/dtau = ``velocity``; ``ensemble=(n, spread)`` adds n kicks in [-spread, spread].
+    def evolve(
+        self,
+        radius,
+        duration,
+        kick=None,
+        velocity=None,
+        sigma=None,
+        direction=None,
+        from_static=False,
+        stop_at_horizon=False,
+        max_turns=20,
+        ensemble=None,
+    ):
+        """Integrate the shell's nonlinear motion in proper time, through horizons, from exactly one start:
+        ``velocity`` (at ``radius`` with dR/dtau = velocity, its sign the direction), ``sigma`` (at ``radius``
+        with that surface energy density; ``direction="inward"|"outward"``), ``kick`` (at rest at
+        ``radius + kick``, ``radius`` a static radius of the law) or ``from_static=True`` (at the static radius
+        ``radius``, at rest or with ``velocity``). ``stop_at_horizon=True`` stops where a side's horizon is
+        reached; ``ensemble=(n, spread)`` adds n kicks in [-spread, spread] (static-radius starts only).
         ``samples`` is the time series (columns ``tau``, ``radius``, ``rdot``, ``sigma``, ``pressure``,
-        ``constraint`` as arrays; ``n_r`` has two columns, the radial normal component on the minus and plus side). Figures: ``evolve_radius``, ``evolve_phase``."""
+        ``constraint`` as arrays; ``n_r`` has two columns, the radial normal on the minus and plus side);
+        ``events`` lists horizon crossings, turning points and normal flips. Figures: ``evolve_radius``,
+        ``evolve_phase``."""
         ens = None if ensemble is None else (int(ensemble[0]), float(ensemble[1]))
-        raw = self._m.evolve(float(radius), float(duration), kick, velocity, int(max_turns), ens)
+        fl = lambda v: None if v is None else float(v)  # noqa: E731
+        raw = self._m.evolve(
+            float(radius),
+            float(duration),
+            fl(kick),
+            fl(velocity),
+            fl(sigma),
+            direction,
+            bool(from_static),
+            bool(stop_at_horizon),
+            int(max_turns),
+            ens,
+        )
         return Result("EvolveResult", raw["result"], raw["figures"], {"samples": raw["samples"]})
 
     def geodesic(self, radius, energy, null=False, shell_velocity=0.0, direction=None):

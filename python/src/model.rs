@@ -396,10 +396,14 @@ impl Model {
         bundle(py, &v, vec![])
     }
 
-    /// The nonlinear motion from a static radius (`evolve`): exactly one of `kick` (start at rest at a0 + kick)
-    /// or `velocity` (start at a0 with dR/dtau = velocity); `ensemble` = (N, spread) adds N kicks in
-    /// [-spread, spread]. `samples` holds the time series.
-    #[pyo3(signature = (radius, duration, kick=None, velocity=None, max_turns=20, ensemble=None))]
+    /// The nonlinear motion of the shell (`evolve`), from exactly one start: `velocity` (at `radius` with
+    /// dR/dtau = velocity), `sigma` (at `radius` with that surface energy density, `direction` "inward" or
+    /// "outward"), `kick` (at rest at a0 + kick, a0 = `radius` a static radius of the law), or
+    /// `from_static` (with `velocity`: at a0 with that dR/dtau; alone: at rest at a0). Crosses horizons unless
+    /// `stop_at_horizon`; `ensemble` = (N, spread) adds N kicks in [-spread, spread]. `samples` holds the time
+    /// series.
+    #[pyo3(signature = (radius, duration, kick=None, velocity=None, sigma=None, direction=None, from_static=false,
+        stop_at_horizon=false, max_turns=20, ensemble=None))]
     #[allow(clippy::too_many_arguments)]
     fn evolve<'py>(
         &self,
@@ -408,10 +412,15 @@ impl Model {
         duration: f64,
         kick: Option<f64>,
         velocity: Option<f64>,
+        sigma: Option<f64>,
+        direction: Option<&str>,
+        from_static: bool,
+        stop_at_horizon: bool,
         max_turns: usize,
         ensemble: Option<(usize, f64)>,
     ) -> PyResult<Bound<'py, PyDict>> {
-        let (rep, figs) = evolve_adapter(&self.s, py, radius, duration, kick, velocity, max_turns, ensemble)?;
+        let start = EvolveStart { kick, velocity, sigma, direction, from_static, stop_at_horizon };
+        let (rep, figs) = evolve_adapter(&self.s, py, radius, duration, start, max_turns, ensemble)?;
         let d = bundle(py, &rep, figs)?;
         // The time series (the CLI's CSV rows), outside `result` so that it stays the CLI's JSON.
         d.set_item("samples", to_object(py, &rep.samples)?)?;
@@ -450,31 +459,46 @@ impl Model {
     }
 }
 
+/// The start of `evolve` as given from Python (the command's --kick, --velocity, --sigma, --direction,
+/// --from-static, --stop-at-horizon).
+pub(crate) struct EvolveStart<'a> {
+    kick: Option<f64>,
+    velocity: Option<f64>,
+    sigma: Option<f64>,
+    direction: Option<&'a str>,
+    from_static: bool,
+    stop_at_horizon: bool,
+}
+
 /// The one place that binds `evolve`: its options and report are expected to change, so they are translated
 /// here only. Returns the report and its figures (R(tau) and the phase portrait).
-#[allow(clippy::too_many_arguments)]
 fn evolve_adapter(
     s: &Scenario,
     py: Python<'_>,
     radius: f64,
     duration: f64,
-    kick: Option<f64>,
-    velocity: Option<f64>,
+    start: EvolveStart<'_>,
     max_turns: usize,
     ensemble: Option<(usize, f64)>,
 ) -> PyResult<(junctura::dynamics::EvolveReport, Vec<(&'static str, junctura::plot::Figure)>)> {
     use junctura::dynamics::{evolve, EvolveOptions, Start};
-    let start = match (kick, velocity) {
-        (Some(k), None) => Start::Kick(k),
-        (None, Some(v)) => Start::Velocity(v),
-        _ => return Err(Error::input("give exactly one of kick=DA or velocity=V0").with_hint("e.g. kick=0.01")).py(py),
+    let outward = match start.direction {
+        None => None,
+        Some("outward") => Some(true),
+        Some("inward") => Some(false),
+        Some(d) => return Err(Error::input(format!("direction '{d}': expected 'inward' or 'outward'"))).py(py),
+    };
+    let Some(begin) = Start::from_options(start.kick, start.velocity, start.sigma, outward, start.from_static) else {
+        return Err(Error::input("give one of kick=DA, velocity=V or sigma=S (or from_static=True)")
+            .with_hint("e.g. velocity=0 (at rest at radius), sigma=0.01 with direction=\"inward\", or kick=0.01 about a static radius"))
+        .py(py);
     };
     if max_turns == 0 {
         return Err(Error::input("max_turns=0: at least one turning point is needed").with_hint("e.g. max_turns=20"))
             .py(py);
     }
-    let opts = EvolveOptions { max_turns, ..EvolveOptions::default() };
-    let rep = py.detach(|| evolve(s, radius, start, duration, ensemble, &opts)).py(py)?;
+    let opts = EvolveOptions { max_turns, stop_at_horizon: start.stop_at_horizon, ..EvolveOptions::default() };
+    let rep = py.detach(|| evolve(s, radius, begin, duration, ensemble, &opts)).py(py)?;
     let j = junctura::junction::Junction::new(s);
     let figs = vec![
         ("evolve_radius", junctura::report::evolve::radius_figure(&rep)),

@@ -154,3 +154,18 @@ def test_closed_forms_match_the_cli(path, cli, cli_json):
                 "--numbering", "on" if numbered else "off",
             ).stdout
             assert sc.closed_forms(state=state, width=width, numbered=numbered).latex == tex
+
+
+@pytest.mark.parametrize(
+    "path,args,kw",
+    [
+        ("scenarios/dust-collapse.toml", ["--velocity", "0"], {"velocity": 0.0}),
+        ("scenarios/charged-dust-bounce.toml", ["--sigma", "0.000954929658551372", "--direction", "inward"],
+         {"sigma": 0.000954929658551372, "direction": "inward"}),
+        ("scenarios/dust-collapse.toml", ["--velocity", "-0.2", "--stop-at-horizon"],
+         {"velocity": -0.2, "stop_at_horizon": True}),
+    ],
+)
+def test_evolve_from_any_start_matches_the_cli(path, args, kw, cli_json):
+    want = cli_json("evolve", path, "--radius", "5", "--duration", "30", *args)
+    same(junctura.Scenario.load(path).evolve(5.0, 30.0, **kw).to_dict(), want)

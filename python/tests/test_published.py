@@ -29,3 +29,33 @@ def test_schwarzschild_wormhole_sigma0_closed_form_is_the_published_one():
     # and beta^2_crit, the form quoted in the test above
     published = -(1 - 3 * m / a + 3 * m**2 / a**2) / (2 * (1 - 2 * m / a) * (1 - 3 * m / a))
     assert sympy.simplify(ns["beta2_crit"] - published) == 0
+
+
+def test_dust_shell_collapse_from_rest_reaches_the_horizon_and_the_centre():
+    """A dust shell (flat inside, Schwarzschild M = 1 outside) released from rest at R = 10M: proper times to
+    R = 2M and R = 0 from the conserved M = m sqrt(1 + Rdot^2) - m^2/(2R) (Israel 1966; Poisson 2004, sec. 3.9),
+    integrated by quadrature at 40 digits in tests/reference/shell_motion_reference.py."""
+    import json
+
+    from conftest import ROOT
+
+    ref = json.loads((ROOT / "tests/reference/shell_motion_golden.json").read_text())["dust"][0]
+    assert ref["start_radius"] == 10.0 and ref["mass_M"] == 1.0
+    ev = junctura.Scenario.load("scenarios/dust-collapse.toml").evolve(10.0, 100.0, velocity=0.0)
+    kinds = [e.kind for e in ev.events]
+    assert "horizon_crossing" in kinds and "center" in kinds
+    crossing = ev.events[kinds.index("horizon_crossing")]
+    assert crossing.radius == pytest.approx(2.0, rel=1e-9)
+    assert crossing.tau == pytest.approx(ref["tau_to_horizon"], rel=1e-7)
+    assert ev.events[kinds.index("center")].tau == pytest.approx(ref["tau_to_center"], rel=1e-7)
+    # stopping at the horizon instead
+    st = junctura.Scenario.load("scenarios/dust-collapse.toml").evolve(10.0, 100.0, velocity=0.0, stop_at_horizon=True)
+    assert st.stop == "horizon" and st.tau_end == pytest.approx(ref["tau_to_horizon"], rel=1e-7)
+
+
+def test_evolve_start_needs_exactly_one_option():
+    sc = junctura.Scenario.load("scenarios/dust-collapse.toml")
+    with pytest.raises(junctura.InputError, match="one of kick"):
+        sc.evolve(10.0, 10.0, velocity=0.0, sigma=0.001)
+    with pytest.raises(junctura.InputError, match="direction"):
+        sc.evolve(10.0, 10.0, sigma=0.001, direction="up")

@@ -71,16 +71,10 @@ pub enum Direction {
 
 pub fn run(a: EvolveArgs) -> Result<()> {
     let s = a.scenario.load()?;
-    let start = match (a.kick, a.velocity, a.sigma, a.from_static) {
-        (Some(k), None, None, false) => Start::Kick(k),
-        (None, Some(v), None, true) => Start::Velocity(v),
-        (None, None, None, true) => Start::Kick(0.0),
-        (None, Some(v), None, false) => Start::Moving(v),
-        (None, None, Some(sg), false) => Start::Sigma { sigma: sg, outward: a.direction.map(|d| d == Direction::Outward) },
-        _ => {
-            return Err(Error::input("give one of --kick DA, --velocity V or --sigma S (or --from-static)")
-                .with_hint("e.g. --velocity 0 (at rest at --radius), --sigma 0.01 --direction inward, or --kick 0.01 about a static radius"))
-        }
+    let outward = a.direction.map(|d| d == Direction::Outward);
+    let Some(start) = Start::from_options(a.kick, a.velocity, a.sigma, outward, a.from_static) else {
+        return Err(Error::input("give one of --kick DA, --velocity V or --sigma S (or --from-static)")
+            .with_hint("e.g. --velocity 0 (at rest at --radius), --sigma 0.01 --direction inward, or --kick 0.01 about a static radius"));
     };
     if a.max_turns == 0 {
         return Err(

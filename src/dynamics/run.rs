@@ -40,6 +40,26 @@ pub enum Start {
 }
 
 impl Start {
+    /// The start given by the front ends' options, `None` when they do not name exactly one start: `kick`
+    /// (about a static radius), `velocity` (at the given radius; about a static radius with `from_static`),
+    /// `sigma` with an optional direction (`outward`), or `from_static` alone (at rest on the static radius).
+    pub fn from_options(
+        kick: Option<f64>,
+        velocity: Option<f64>,
+        sigma: Option<f64>,
+        outward: Option<bool>,
+        from_static: bool,
+    ) -> Option<Start> {
+        match (kick, velocity, sigma, from_static) {
+            (Some(k), None, None, false) => Some(Start::Kick(k)),
+            (None, Some(v), None, true) => Some(Start::Velocity(v)),
+            (None, None, None, true) => Some(Start::Kick(0.0)),
+            (None, Some(v), None, false) => Some(Start::Moving(v)),
+            (None, None, Some(sigma), false) => Some(Start::Sigma { sigma, outward }),
+            _ => None,
+        }
+    }
+
     /// True for the starts about a static radius (kick, velocity at a0).
     pub fn is_static(&self) -> bool {
         matches!(self, Start::Kick(_) | Start::Velocity(_))

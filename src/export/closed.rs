@@ -25,7 +25,9 @@ pub fn parse_width(w: &str) -> crate::Result<f64> {
                     .with_hint("e.g. --width column, --width page, --width 12.5")
             })?;
             if !(cm.is_finite() && (3.0..=100.0).contains(&cm)) {
-                return Err(crate::Error::input(format!("--width {other}: a text width between 3 and 100 cm is expected")));
+                return Err(crate::Error::input(format!(
+                    "--width {other}: a text width between 3 and 100 cm is expected"
+                )));
             }
             Ok(cm / 2.54 * 72.27)
         }

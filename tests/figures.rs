@@ -471,3 +471,45 @@ fn figure_options_set_size_limits_labels_and_log_axes() {
     let t = (m.0 - a.0) / (b.0 - a.0);
     assert!((a.1 + t * (b.1 - a.1) - m.1).abs() < 0.5, "not straight on the log axis");
 }
+
+/// evolve and chain take the figure options too (common practice: every figure a command writes is
+/// controllable without editing code).
+#[test]
+fn evolve_and_chain_figures_follow_the_figure_options() {
+    let dir = tempfile::tempdir().unwrap();
+    let run = |args: &[&str]| {
+        let out = std::process::Command::new(env!("CARGO_BIN_EXE_junctura")).args(args).output().unwrap();
+        assert!(out.status.success(), "{args:?}: {}", String::from_utf8_lossy(&out.stderr));
+    };
+    let d = dir.path().to_str().unwrap();
+    let dust = root().join("scenarios/dust-collapse.toml");
+    let chain = root().join("scenarios/chains/bounce-chain.toml");
+    run(&["evolve", dust.to_str().unwrap(), "--radius", "10", "--velocity", "0", "--duration", "100", "--out", d]);
+    let classic = std::fs::read_to_string(dir.path().join("evolve_radius.svg")).unwrap();
+    assert!(!classic.contains("font-family=\"STIXGeneral\""));
+    run(&[
+        "evolve",
+        dust.to_str().unwrap(),
+        "--radius",
+        "10",
+        "--velocity",
+        "0",
+        "--duration",
+        "100",
+        "--out",
+        d,
+        "--style",
+        "journal",
+        "--width",
+        "page",
+        "--ylabel",
+        "shell radius R/M",
+    ]);
+    run(&["chain", chain.to_str().unwrap(), "--out", d, "--style", "journal", "--width", "page"]);
+    for f in ["evolve_radius.svg", "evolve_phase.svg", "bounce-chain_chain_distance.svg"] {
+        let svg = std::fs::read_to_string(dir.path().join(f)).unwrap();
+        assert!(svg.contains("width=\"17.800cm\"") && svg.contains("font-family=\"STIXGeneral\""), "{f}");
+    }
+    let radius = std::fs::read_to_string(dir.path().join("evolve_radius.svg")).unwrap();
+    assert!(radius.contains("shell radius R/M"));
+}

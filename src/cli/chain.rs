@@ -36,12 +36,15 @@ pub struct Args {
     /// Output format on stdout.
     #[arg(long, value_enum, default_value_t = ChainFormat::Text)]
     format: ChainFormat,
-    /// Also write <name>.csv and <name>.json into this folder.
+    /// Also write <name>.csv, <name>.json and the figures into this folder.
     #[arg(long)]
     out: Option<PathBuf>,
+    #[command(flatten)]
+    figure: super::common::FigureArgs,
 }
 
 pub fn run(args: Args) -> Result<()> {
+    let fig_opts = args.figure.options()?;
     let chain = Chain::load(&args.file)?;
     let crossings = args.crossings.unwrap_or(chain.crossings);
     let report = chain_report(&chain, crossings, args.mass.as_deref(), args.within.as_deref())?;
@@ -63,10 +66,11 @@ pub fn run(args: Args) -> Result<()> {
             (Some(t), Some(u)) => Some(u.to_m(t)),
             (t, _) => t,
         };
-        for (name, fig) in junctura::report::figures::chain_figures(&report.series, thr_plot, &provenance) {
+        for (name, mut fig) in junctura::report::figures::chain_figures(&report.series, thr_plot, &provenance) {
             if fig.series.iter().all(|s| s.points.iter().all(|p| !p.1.is_finite())) {
                 continue;
             }
+            fig_opts.apply(&mut fig, junctura::plot::StyleName::Classic);
             for p in junctura::plot::write_figure(&fig, dir, &format!("{stem}_{name}"))? {
                 eprintln!("wrote {}", p.display());
             }

@@ -58,6 +58,8 @@ pub struct EvolveArgs {
     /// Write evolve.csv, evolve.json and the figures evolve_radius and evolve_phase (SVG, PDF, PNG) here.
     #[arg(long, value_name = "DIR")]
     out: Option<PathBuf>,
+    #[command(flatten)]
+    figure: super::common::FigureArgs,
 }
 
 /// Direction of motion at the start.
@@ -82,6 +84,7 @@ pub fn run(a: EvolveArgs) -> Result<()> {
         );
     }
     let opts = EvolveOptions { max_turns: a.max_turns, stop_at_horizon: a.stop_at_horizon, ..EvolveOptions::default() };
+    let fig_opts = a.figure.options()?;
     let ens = a.ensemble.zip(a.spread);
     let rep = evolve(&s, a.radius, start, a.duration, ens, &opts)?;
     for n in &rep.notes {
@@ -92,8 +95,10 @@ pub fn run(a: EvolveArgs) -> Result<()> {
         write_atomic(&dir.join("evolve.csv"), ex::evolve_csv(&rep).as_bytes())?;
         write_atomic(&dir.join("evolve.json"), ex::evolve_json(&rep).as_bytes())?;
         let j = Junction::new(&s);
-        write_figure(&radius_figure(&rep), dir, "evolve_radius")?;
-        write_figure(&phase_figure(&j, &rep), dir, "evolve_phase")?;
+        for (stem, mut fig) in [("evolve_radius", radius_figure(&rep)), ("evolve_phase", phase_figure(&j, &rep))] {
+            fig_opts.apply(&mut fig, junctura::plot::StyleName::Classic);
+            write_figure(&fig, dir, stem)?;
+        }
     }
     match a.format {
         Fmt::Json => print_stdout(&ex::evolve_json(&rep)),

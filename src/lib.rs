@@ -44,6 +44,7 @@ pub mod scan;
 pub mod scenario;
 pub mod statics;
 pub mod survey;
+pub mod text;
 pub mod units;
 
 pub use error::{Error, ErrorKind, Result};

@@ -187,7 +187,7 @@ pub fn print_stdout(text: &str) {
 
 /// A warning line on stderr.
 pub fn warn(text: &str) {
-    let _ = writeln!(std::io::stderr(), "warning: {text}");
+    let _ = writeln!(std::io::stderr(), "warning: {}", crate::text::terminal(text));
 }
 
 /// A file being written under a temporary name in its final folder; `finish` renames it into place. Dropped

@@ -85,7 +85,7 @@ fn e(v: Option<f64>) -> String {
 }
 
 fn text(r: &ChainReport, si: bool) -> String {
-    let mut o = format!("chain: {}\n{}\n", r.chain, r.provenance);
+    let mut o = format!("chain: {}\n{}\n", junctura::text::one_line(&r.chain), junctura::text::one_line(&r.provenance));
     if let Some(l) = r.length_unit_m {
         o.push_str(&format!("lengths in units of G M/c^2 = {l:.9e} m (and in m)\n"));
     }

@@ -134,6 +134,15 @@ impl FigureArgs {
                     .with_hint("auto, upper-right, upper-left, lower-right, lower-left, above or none")
             })?),
         };
+        for (opt, v) in [("--xlabel", &self.xlabel), ("--ylabel", &self.ylabel)] {
+            if let Some((_, c)) = v.as_deref().and_then(junctura::text::unsafe_char) {
+                return Err(junctura::Error::input(format!(
+                    "{opt}: the label contains the control character {}",
+                    junctura::text::one_line(&c.to_string())
+                ))
+                .with_hint("give the label as one line of plain text"));
+            }
+        }
         Ok(FigureOptions {
             style,
             width_cm,

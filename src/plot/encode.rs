@@ -336,9 +336,10 @@ pub(crate) fn pdf_from_svg(svg: &str, provenance: &str, title: Option<&str>) -> 
     Ok(pdf.finish())
 }
 
-/// Escape text for XML character data and attribute values.
+/// Escape text for XML character data and attribute values (control characters, which XML 1.0 does not allow,
+/// are written as visible escapes by [`crate::text::one_line`]).
 fn xml_escape(s: &str) -> String {
-    s.replace('&', "&amp;").replace('<', "&lt;").replace('>', "&gt;").replace('"', "&quot;")
+    crate::text::one_line(s).replace('&', "&amp;").replace('<', "&lt;").replace('>', "&gt;").replace('"', "&quot;")
 }
 
 /// Standard base64 (RFC 4648 section 4, with padding).

@@ -105,7 +105,7 @@ pub fn write_report(s: &Scenario, dir: &Path, opts: &ReportOptions) -> Result<Ve
         ShellKind::Timelike => timelike_part(s, opts, &mut out)?,
     }
     // summary.md names every file.
-    let mut md = format!("# junctura report: {}\n\n`{}`\n\n", s.name, prov);
+    let mut md = format!("# junctura report: {}\n\n`{}`\n\n", crate::text::one_line(&s.name), prov.replace('`', "'"));
     for n in &out.notes {
         md.push_str(&format!("**Note:** {n}\n\n"));
     }

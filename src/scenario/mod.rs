@@ -449,7 +449,14 @@ impl Scenario {
                 );
             }
             match v {
-                toml::Value::String(s) if !s.trim().is_empty() => symbols.push((k.clone(), s.trim().to_string())),
+                toml::Value::String(s) if !s.trim().is_empty() => {
+                    if let Some(why) = crate::text::tex_symbol_problem(s) {
+                        return Err(Error::input(format!("{loc}: [symbols] {k} {why}")).with_hint(format!(
+                            "a symbol is LaTeX math, e.g. {k} = '\\lambda' or '\\mathcal{{Q}}_{{2}}'"
+                        )));
+                    }
+                    symbols.push((k.clone(), s.trim().to_string()))
+                }
                 other => {
                     return Err(Error::input(format!(
                         "{loc}: [symbols] {k} must be a non-empty string (a LaTeX symbol), found {}",
@@ -460,7 +467,16 @@ impl Scenario {
             }
         }
         let symbols = Symbols::new(symbols);
+        let name_start = raw.name.span().start;
         let name = raw.name.into_inner();
+        if let Some((_, c)) = crate::text::unsafe_char(&name) {
+            return Err(Error::input(format!(
+                "{}: name contains the control character {} (a line break, tab or terminal code)",
+                at(name_start),
+                crate::text::one_line(&c.to_string())
+            ))
+            .with_hint("write the name on one line of plain text; it is copied into every output file"));
+        }
         Ok(Scenario { name, dimension, params, minus, plus, shell: Shell { kind: shell_kind, eos }, symbols, origin })
     }
 
@@ -491,8 +507,8 @@ impl Scenario {
         format!(
             "junctura {} | scenario \"{}\" ({}) sha256:{} | D={} | {}",
             env!("CARGO_PKG_VERSION"),
-            self.name,
-            self.origin.label(),
+            crate::text::one_line(&self.name),
+            crate::text::one_line(&self.origin.label()),
             self.origin.short_hash(),
             self.dimension,
             self.params.describe()

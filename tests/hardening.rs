@@ -179,3 +179,133 @@ fn control_character_in_figure_label_is_refused() {
     assert!(stderr(&o).contains("--xlabel"));
     assert!(names(t.path()).is_empty());
 }
+
+/// Two map parts of a 4 x 4 map (equal sizes) in `dir`; returns the part JSON paths.
+fn two_parts(dir: &Path) -> [PathBuf; 2] {
+    for k in ["1/2", "2/2"] {
+        let o = run(&[
+            "map",
+            &wormhole(),
+            "--x",
+            "m:0.5:2:4",
+            "--y",
+            "w:-0.9:-0.6:4",
+            "--shard",
+            k,
+            "--out",
+            &dir.display().to_string(),
+        ]);
+        assert!(o.status.success(), "{}", stderr(&o));
+    }
+    [dir.join("map.part-1-of-2.json"), dir.join("map.part-2-of-2.json")]
+}
+
+fn merge(parts: &[PathBuf; 2], out: &Path) -> Output {
+    run(&[
+        "merge",
+        &parts[0].display().to_string(),
+        &parts[1].display().to_string(),
+        "--out",
+        &out.display().to_string(),
+    ])
+}
+
+/// Rewrite the data-row count and hash in a part JSON to match its (edited) CSV, as a forger would.
+fn reseal(json: &Path) {
+    use sha2::Digest;
+    let csv = std::fs::read_to_string(json.with_extension("csv")).unwrap();
+    let mut m: serde_json::Value = serde_json::from_str(&std::fs::read_to_string(json).unwrap()).unwrap();
+    let body = csv.strip_prefix(m["csv_header"].as_str().unwrap()).unwrap().to_string();
+    m["data_rows"] = body.matches('\n').count().into();
+    m["data_sha256"] = format!("{:x}", sha2::Sha256::digest(body.as_bytes())).into();
+    std::fs::write(json, serde_json::to_string_pretty(&m).unwrap()).unwrap();
+}
+
+fn edit_csv(json: &Path, f: impl FnOnce(Vec<String>) -> Vec<String>) {
+    let p = json.with_extension("csv");
+    let lines: Vec<String> = std::fs::read_to_string(&p).unwrap().lines().map(String::from).collect();
+    std::fs::write(&p, f(lines).join("\n") + "\n").unwrap();
+}
+
+fn assert_merge_refused(parts: &[PathBuf; 2], out: &Path, needle: &str) {
+    let o = merge(parts, out);
+    assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+    assert!(stderr(&o).contains(needle), "{}", stderr(&o));
+    assert!(!out.join("map.csv").exists() && !out.join("map.json").exists());
+}
+
+#[test]
+fn merge_refuses_part_truncated_at_a_row_boundary() {
+    let t = tempfile::tempdir().unwrap();
+    let parts = two_parts(t.path());
+    edit_csv(&parts[1], |mut l| {
+        l.pop();
+        l
+    });
+    assert_merge_refused(&parts, &t.path().join("m"), "data rows");
+    // Even with the count and hash rewritten, the missing cell is found.
+    reseal(&parts[1]);
+    assert_merge_refused(&parts, &t.path().join("m"), "hold 8 cells");
+}
+
+#[test]
+fn merge_refuses_part_with_extra_rows() {
+    let t = tempfile::tempdir().unwrap();
+    let parts = two_parts(t.path());
+    edit_csv(&parts[0], |mut l| {
+        let last = l.last().unwrap().clone();
+        l.push(last);
+        l
+    });
+    assert_merge_refused(&parts, &t.path().join("m"), "data rows");
+    reseal(&parts[0]);
+    assert_merge_refused(&parts, &t.path().join("m"), "hold 8 cells");
+}
+
+#[test]
+fn merge_refuses_nan_in_a_part() {
+    let t = tempfile::tempdir().unwrap();
+    let parts = two_parts(t.path());
+    edit_csv(&parts[0], |mut l| {
+        let n = l.len() - 1;
+        let mut f: Vec<String> = l[n].split(',').map(String::from).collect();
+        f[5] = "NaN".into();
+        l[n] = f.join(",");
+        l
+    });
+    assert_merge_refused(&parts, &t.path().join("m"), "SHA-256");
+    reseal(&parts[0]);
+    assert_merge_refused(&parts, &t.path().join("m"), "not a map data row");
+}
+
+#[test]
+fn merge_refuses_swapped_part_files() {
+    let t = tempfile::tempdir().unwrap();
+    let parts = two_parts(t.path());
+    let (a, b) = (parts[0].with_extension("csv"), parts[1].with_extension("csv"));
+    let tmp = t.path().join("swap");
+    std::fs::rename(&a, &tmp).unwrap();
+    std::fs::rename(&b, &a).unwrap();
+    std::fs::rename(&tmp, &b).unwrap();
+    assert_merge_refused(&parts, &t.path().join("m"), "SHA-256");
+    reseal(&parts[0]);
+    reseal(&parts[1]);
+    assert_merge_refused(&parts, &t.path().join("m"), "expected (0, 0)");
+}
+
+#[test]
+fn merge_of_untouched_parts_still_matches_the_whole_map() {
+    let t = tempfile::tempdir().unwrap();
+    let parts = two_parts(&t.path().join("parts"));
+    let o = merge(&parts, &t.path().join("m"));
+    assert!(o.status.success(), "{}", stderr(&o));
+    let w = small_map(&t.path().join("whole"));
+    assert!(w.status.success());
+    for f in ["map.csv", "map.json"] {
+        assert_eq!(
+            std::fs::read(t.path().join("m").join(f)).unwrap(),
+            std::fs::read(t.path().join("whole").join(f)).unwrap(),
+            "{f}"
+        );
+    }
+}

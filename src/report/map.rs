@@ -125,6 +125,7 @@ pub fn write_map(
     csv.write(csv_header(s, spec).as_bytes())?;
     let total = lines.len();
     let mut summary = Summary::default();
+    let mut digest = crate::export::map::DataDigest::default();
     let mut classes: Vec<Cell> = Vec::new();
     let keep_cells = shard.is_none() && (spec.x.n as u64) * (spec.y.n as u64) <= MAX_KEPT_CELLS;
     // Lines per block: about 1% of the map, but never more than ~1e6 cells held at once.
@@ -144,11 +145,12 @@ pub fn write_map(
             }
         }
         csv.write(text.as_bytes())?;
+        digest.add(&text);
         progress(end - lines.start, total);
         start = end;
     }
     csv.finish()?;
-    let m = meta(s, spec, summary, shard);
+    let m = meta(s, spec, summary, shard, digest);
     let json_path = dir.join(format!("{stem}.json"));
     let json = serde_json::to_string_pretty(&m).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"));
     write_atomic(&json_path, json.as_bytes())?;

@@ -145,8 +145,89 @@ fn create_temp(path: &Path) -> Result<(PathBuf, std::fs::File)> {
     Err(Error::io(path, &e).with_hint("files keep appearing under our temporary names in the output folder"))
 }
 
+/// Is `field` a spelling of a non-finite number (`NaN`, `inf`, `-inf`, `+inf`, `infinity`, any case)?
+fn non_finite_field(field: &str) -> bool {
+    let f = field.trim().trim_start_matches(['+', '-']);
+    f.eq_ignore_ascii_case("nan") || f.eq_ignore_ascii_case("inf") || f.eq_ignore_ascii_case("infinity")
+}
+
+/// The last guard before CSV data leaves the program: no field of a data row may be a non-finite number
+/// (README "Outputs": a quantity that does not exist is an empty field). Fed whole or partial text in order;
+/// `#` lines and the header (the first other line) are not checked.
+#[derive(Debug, Default)]
+pub struct CsvGuard {
+    header: Option<Vec<String>>,
+    carry: String,
+    rows: usize,
+}
+
+impl CsvGuard {
+    /// Check the next piece of CSV text; `what` names the file or stream in the error.
+    pub fn feed(&mut self, text: &str, what: &str) -> Result<()> {
+        self.carry.push_str(text);
+        let Some(end) = self.carry.rfind('\n') else { return Ok(()) };
+        let done: String = self.carry.drain(..=end).collect();
+        for line in done.lines() {
+            self.line(line, what)?;
+        }
+        Ok(())
+    }
+
+    /// Check what is left (a last line without a line break).
+    pub fn finish(&mut self, what: &str) -> Result<()> {
+        let rest = std::mem::take(&mut self.carry);
+        if rest.is_empty() {
+            Ok(())
+        } else {
+            self.line(&rest, what)
+        }
+    }
+
+    fn line(&mut self, line: &str, what: &str) -> Result<()> {
+        if line.starts_with('#') || line.is_empty() {
+            return Ok(());
+        }
+        let Some(header) = &self.header else {
+            self.header = Some(line.split(',').map(String::from).collect());
+            return Ok(());
+        };
+        self.rows += 1;
+        if let Some((k, f)) = line.split(',').enumerate().find(|(_, f)| non_finite_field(f)) {
+            let col = header.get(k).map(String::as_str).unwrap_or("?");
+            return Err(Error::numerical(format!(
+                "{what}: data row {} would hold the non-finite number {f} in column '{col}'; nothing was written",
+                self.rows
+            ))
+            .with_hint("the request overflows floating point (values near 1e308) or lies where the formulas fail"));
+        }
+        Ok(())
+    }
+}
+
+fn is_csv(path: &Path) -> bool {
+    path.extension().is_some_and(|e| e.eq_ignore_ascii_case("csv"))
+}
+
+/// Check a whole CSV text with [`CsvGuard`].
+pub fn guard_csv(text: &str, what: &str) -> Result<()> {
+    let mut g = CsvGuard::default();
+    g.feed(text, what)?;
+    g.finish(what)
+}
+
+/// Print CSV data to stdout after [`guard_csv`]: a non-finite number is an error (code 3), not a row.
+pub fn print_csv(text: &str) -> Result<()> {
+    guard_csv(text, "stdout")?;
+    print_stdout(text);
+    Ok(())
+}
+
 /// Write `bytes` to `path` atomically: write a fresh exclusive temporary file in the same folder, sync, rename.
+/// CSV files (`.csv`) pass [`CsvGuard`] first.
 pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<()> {
+    if is_csv(path) {
+        guard_csv(&String::from_utf8_lossy(bytes), &path.display().to_string())?;
+    }
     let (tmp, mut f) = create_temp(path)?;
     let result = (|| -> std::io::Result<()> {
         f.write_all(bytes)?;
@@ -197,17 +278,23 @@ pub struct AtomicFile {
     path: PathBuf,
     tmp: PathBuf,
     file: Option<std::io::BufWriter<std::fs::File>>,
+    guard: Option<CsvGuard>,
 }
 
 impl AtomicFile {
     /// Start writing `path`.
     pub fn create(path: &Path) -> Result<AtomicFile> {
         let (tmp, f) = create_temp(path)?;
-        Ok(AtomicFile { path: path.to_path_buf(), tmp, file: Some(std::io::BufWriter::new(f)) })
+        let guard = is_csv(path).then(CsvGuard::default);
+        Ok(AtomicFile { path: path.to_path_buf(), tmp, file: Some(std::io::BufWriter::new(f)), guard })
     }
 
-    /// Append bytes.
+    /// Append bytes (a CSV file checks them with [`CsvGuard`]; on error the file is left unfinished, so it is
+    /// removed when dropped).
     pub fn write(&mut self, bytes: &[u8]) -> Result<()> {
+        if let Some(g) = self.guard.as_mut() {
+            g.feed(&String::from_utf8_lossy(bytes), &self.path.display().to_string())?;
+        }
         match self.file.as_mut() {
             Some(f) => f.write_all(bytes).map_err(|e| Error::io(&self.path, &e)),
             None => Ok(()),
@@ -216,6 +303,9 @@ impl AtomicFile {
 
     /// Flush, sync and rename into place.
     pub fn finish(mut self) -> Result<()> {
+        if let Some(g) = self.guard.as_mut() {
+            g.finish(&self.path.display().to_string())?;
+        }
         if let Some(f) = self.file.take() {
             let result = f
                 .into_inner()
@@ -347,5 +437,26 @@ mod tests {
         assert!(!stale.exists());
         assert!(live.exists());
         assert!(other.exists());
+    }
+
+    #[test]
+    fn csv_guard_refuses_non_finite_fields_and_writes_nothing() {
+        let dir = tempfile::tempdir().unwrap();
+        let p = dir.path().join("a.csv");
+        let text = "# inf in a comment is fine\nx,energy\n1.0,2.0\n3.0,NaN\n";
+        let e = write_atomic(&p, text.as_bytes()).unwrap_err();
+        assert_eq!(e.kind, crate::error::ErrorKind::Numerical);
+        assert!(e.message.contains("data row 2") && e.message.contains("'energy'"), "{e}");
+        assert!(!p.exists());
+        for bad in ["-inf", "+Infinity", " inf"] {
+            assert!(guard_csv(&format!("x\n{bad}\n"), "t").is_err(), "{bad}");
+        }
+        assert!(guard_csv("x,y\n1,\ninfo,nanometre\n", "t").is_ok());
+        // Streamed in pieces that split a row.
+        let mut f = AtomicFile::create(&p).unwrap();
+        f.write(b"x,y\n1,2\n3,n").unwrap();
+        assert!(f.write(b"an\n").is_err());
+        drop(f);
+        assert_eq!(std::fs::read_dir(dir.path()).unwrap().count(), 0);
     }
 }

@@ -309,3 +309,54 @@ fn merge_of_untouched_parts_still_matches_the_whole_map() {
         );
     }
 }
+
+#[test]
+fn overflowing_axis_span_is_refused_before_any_cell() {
+    let rn = root().join("scenarios/reissner-nordstrom-wormhole.toml").display().to_string();
+    let t = tempfile::tempdir().unwrap();
+    let o = run(&[
+        "map",
+        &rn,
+        "--x",
+        "radius:1.7:6:3",
+        "--y",
+        "q:-1.7e308:1.7e308:3",
+        "--beta2",
+        "-1",
+        "--out",
+        &t.path().display().to_string(),
+    ]);
+    assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+    assert!(stderr(&o).contains("--y q:-1.7e308:1.7e308:3"), "{}", stderr(&o));
+    assert!(names(t.path()).is_empty());
+}
+
+#[test]
+fn huge_evolve_velocity_is_refused_not_written_as_nan() {
+    let o = run(&["evolve", &wormhole(), "--radius", "4", "--duration", "1", "--velocity", "1e200", "--format", "csv"]);
+    assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+    assert!(stderr(&o).contains("--velocity 1e200"), "{}", stderr(&o));
+    assert!(o.stdout.is_empty());
+}
+
+#[test]
+fn huge_geodesic_energy_is_refused_not_written_as_nan() {
+    let star = root().join("scenarios/star-shell.toml").display().to_string();
+    for format in ["csv", "json", "text"] {
+        let o = run(&["geodesic", &star, "--radius", "4", "--energy", "1e308", "--format", format]);
+        assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+        assert!(stderr(&o).contains("--energy 1e308"), "{}", stderr(&o));
+        assert!(o.stdout.is_empty());
+    }
+}
+
+#[test]
+fn largest_accepted_values_give_finite_data() {
+    // At the accepted bound every data row must still be finite (the CSV guard would refuse otherwise).
+    let o = run(&["evolve", &wormhole(), "--radius", "4", "--duration", "1", "--velocity", "1e100", "--format", "csv"]);
+    let out = String::from_utf8_lossy(&o.stdout);
+    assert!(o.status.success() || o.status.code() == Some(3), "{}", stderr(&o));
+    for row in out.lines().filter(|l| !l.starts_with('#')) {
+        assert!(!row.split(',').any(|f| f.eq_ignore_ascii_case("nan") || f.ends_with("inf")), "{row}");
+    }
+}

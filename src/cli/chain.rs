@@ -74,7 +74,7 @@ pub fn run(args: Args) -> Result<()> {
     }
     match args.format {
         ChainFormat::Json => print_stdout(&json),
-        ChainFormat::Csv => print_stdout(&csv),
+        ChainFormat::Csv => junctura::output::print_csv(&csv)?,
         ChainFormat::Text => print_stdout(&text(&report, unit.is_some())),
     }
     Ok(())

@@ -25,7 +25,7 @@ pub fn run(args: Args) -> Result<()> {
     match args.format {
         Format::Json => print_stdout(&to_json(&report)),
         Format::Text | Format::Latex => print_stdout(&text(&report)),
-        Format::Csv => print_stdout(&csv(&report)),
+        Format::Csv => junctura::output::print_csv(&csv(&report))?,
     }
     Ok(())
 }

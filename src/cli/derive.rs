@@ -28,9 +28,7 @@ pub struct Args {
 pub fn run(args: Args) -> Result<()> {
     let s = args.scenario.load()?;
     for (name, v) in [("--radius", args.radius), ("--velocity", args.velocity), ("--acceleration", args.acceleration)] {
-        if !v.is_finite() {
-            return Err(Error::input(format!("{name} {v} is not a finite number")));
-        }
+        junctura::request::value(name, v)?;
     }
     if args.radius <= 0.0 {
         return Err(Error::input(format!("--radius {}: the areal radius must be positive", args.radius)));
@@ -45,7 +43,7 @@ pub fn run(args: Args) -> Result<()> {
             print_stdout(&to_json(&rep))
         }
         Format::Text => print_stdout(&text(&rep)),
-        Format::Csv => print_stdout(&junctura::export::derive::csv(&rep)),
+        Format::Csv => junctura::output::print_csv(&junctura::export::derive::csv(&rep))?,
         Format::Latex => {
             for w in &rep.warnings {
                 warn(w);

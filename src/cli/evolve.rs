@@ -71,6 +71,18 @@ pub enum Direction {
 
 pub fn run(a: EvolveArgs) -> Result<()> {
     let s = a.scenario.load()?;
+    for (flag, v) in [
+        ("--radius", Some(a.radius)),
+        ("--duration", Some(a.duration)),
+        ("--kick", a.kick),
+        ("--velocity", a.velocity),
+        ("--sigma", a.sigma),
+        ("--spread", a.spread),
+    ] {
+        if let Some(v) = v {
+            junctura::request::value(flag, v)?;
+        }
+    }
     let start = match (a.kick, a.velocity, a.sigma, a.from_static) {
         (Some(k), None, None, false) => Start::Kick(k),
         (None, Some(v), None, true) => Start::Velocity(v),
@@ -104,7 +116,7 @@ pub fn run(a: EvolveArgs) -> Result<()> {
     match a.format {
         Fmt::Json => print_stdout(&ex::evolve_json(&rep)),
         Fmt::Text => print_stdout(&ex::evolve_text(&rep)),
-        Fmt::Csv => print_stdout(&ex::evolve_csv(&rep)),
+        Fmt::Csv => junctura::output::print_csv(&ex::evolve_csv(&rep))?,
     }
     Ok(())
 }

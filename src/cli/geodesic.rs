@@ -53,6 +53,9 @@ pub struct Args {
 
 pub fn run(args: Args) -> Result<()> {
     let s = args.scenario.load()?;
+    for (flag, v) in [("--radius", args.radius), ("--energy", args.energy), ("--shell-velocity", args.shell_velocity)] {
+        junctura::request::value(flag, v)?;
+    }
     let particle = if args.null { Particle::Null } else { Particle::Timelike };
     let direction = args.direction.map(|d| match d {
         DirectionArg::Inward => Direction::Inward,
@@ -69,7 +72,7 @@ pub fn run(args: Args) -> Result<()> {
     match args.format {
         GeoFormat::Json => print_stdout(&to_json(&report)),
         GeoFormat::Text => print_stdout(&text(&report)),
-        GeoFormat::Csv => print_stdout(&csv(&report)),
+        GeoFormat::Csv => junctura::output::print_csv(&csv(&report))?,
     }
     Ok(())
 }

@@ -360,3 +360,43 @@ fn largest_accepted_values_give_finite_data() {
         assert!(!row.split(',').any(|f| f.eq_ignore_ascii_case("nan") || f.ends_with("inf")), "{row}");
     }
 }
+
+#[test]
+fn repeated_report_runs_give_byte_identical_pdfs() {
+    // The figures with several fonts and resources (families, maps) used to change from run to run.
+    let rn = root().join("scenarios/reissner-nordstrom-wormhole.toml").display().to_string();
+    let t = tempfile::tempdir().unwrap();
+    let mut runs: Vec<Vec<(String, Vec<u8>)>> = Vec::new();
+    for k in 0..3 {
+        let d = t.path().join(format!("r{k}"));
+        let o = run(&["report", &rn, "--out", &d.display().to_string(), "--family", "q=0,0.3,0.6"]);
+        assert!(o.status.success(), "{}", stderr(&o));
+        let pdfs: Vec<(String, Vec<u8>)> = names(&d)
+            .into_iter()
+            .filter(|n| n.ends_with(".pdf"))
+            .map(|n| (n.clone(), std::fs::read(d.join(&n)).unwrap()))
+            .collect();
+        assert!(pdfs.len() >= 5, "{:?}", names(&d));
+        runs.push(pdfs);
+    }
+    for (a, b) in runs[0].iter().zip(&runs[1]).chain(runs[0].iter().zip(&runs[2])) {
+        assert_eq!(a.0, b.0);
+        assert!(a.1 == b.1, "{} differs between runs", a.0);
+    }
+}
+
+#[test]
+fn bad_vary_in_report_writes_no_file() {
+    let t = tempfile::tempdir().unwrap();
+    let d = t.path().join("rep");
+    let o = run(&["report", &wormhole(), "--out", &d.display().to_string(), "--vary", "ww:0:1:5"]);
+    assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+    assert!(stderr(&o).contains("--vary ww") && stderr(&o).contains("did you mean"), "{}", stderr(&o));
+    assert!(!d.exists() || names(&d).is_empty());
+    // A scenario without an equation of state cannot be swept: said before anything is written.
+    let rn = root().join("scenarios/reissner-nordstrom-wormhole.toml").display().to_string();
+    let o = run(&["report", &rn, "--out", &d.display().to_string(), "--vary", "q:0:0.9:5"]);
+    assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+    assert!(stderr(&o).contains("equation of state"), "{}", stderr(&o));
+    assert!(!d.exists() || names(&d).is_empty());
+}

@@ -123,6 +123,9 @@ pub struct MergeArgs {
     /// Folder for the merged map.csv / map.json / figure.
     #[arg(long)]
     out: PathBuf,
+    /// Figure options: give the ones the shards were run with, to get the unsharded run's figure.
+    #[command(flatten)]
+    figure: super::common::FigureArgs,
 }
 
 pub fn run_merge(a: MergeArgs) -> Result<()> {
@@ -150,6 +153,8 @@ pub fn run_merge(a: MergeArgs) -> Result<()> {
     for (m, p) in &metas {
         if m.csv_header != first.csv_header
             || m.scenario_sha256 != first.scenario_sha256
+            || m.parameters != first.parameters
+            || m.spec != first.spec
             || m.shard.map(|s| s.1) != Some(n)
         {
             return Err(Error::input(format!(
@@ -163,7 +168,9 @@ pub fn run_merge(a: MergeArgs) -> Result<()> {
     if spec.n_lines() != first.lines {
         return Err(Error::input(format!("{}: its axes do not give its {} lines", metas[0].1.display(), first.lines)));
     }
-    let keep = (spec.x.n as u64) * (spec.y.n as u64) <= 4_000_000;
+    let keep = (spec.x.n as u64) * (spec.y.n as u64) <= junctura::report::map::MAX_KEPT_CELLS;
+    let fig_opts = a.figure.options()?;
+    let scenario = part_scenario(&first, &metas[0].1)?;
     let mut total = Summary::default();
     let mut cells = Vec::new();
     let mut digests = Vec::new();
@@ -207,25 +214,45 @@ pub fn run_merge(a: MergeArgs) -> Result<()> {
     m.shard = None;
     m.summary = total;
     (m.data_rows, m.data_sha256) = whole.finish();
+    if !keep {
+        let note = junctura::report::map::no_figure_note(&spec);
+        junctura::output::warn(&note);
+        m.figure_note = Some(note);
+    }
     write_atomic(&a.out.join("map.json"), to_json(&m).as_bytes())?;
     eprintln!("wrote {}", csv_path.display());
     eprintln!("wrote {}", a.out.join("map.json").display());
     if keep {
-        for p in junctura::plot::write_figure(
-            &junctura::report::figures::map_figure(m.provenance.clone(), &spec, &cells),
-            &a.out,
-            "map",
-        )? {
+        let fig = junctura::report::map::map_file_figure(&scenario, &spec, &cells, m.provenance.clone(), &fig_opts);
+        for p in junctura::plot::write_figure(&fig, &a.out, "map")? {
             eprintln!("wrote {}", p.display());
         }
-    } else {
-        let msg = format!(
-            "{} x {} cells: more than 4000000, so no figure was drawn (map.csv and map.json are complete)",
-            spec.x.n, spec.y.n
-        );
-        junctura::output::warn(&msg);
     }
     Ok(())
+}
+
+/// The scenario a part was computed from (its text is in the part metadata, checked against its SHA-256), with
+/// the part's parameter values.
+fn part_scenario(m: &MapMeta, p: &std::path::Path) -> Result<Scenario> {
+    use sha2::Digest;
+    let hint = "run the shards again with this version of junctura (map --shard K/N)";
+    if m.scenario_text.is_empty() {
+        return Err(Error::input(format!(
+            "{}: the part metadata has no scenario text (an older junctura wrote it)",
+            p.display()
+        ))
+        .with_hint(hint));
+    }
+    if format!("{:x}", sha2::Sha256::digest(m.scenario_text.as_bytes())) != m.scenario_sha256 {
+        return Err(
+            Error::input(format!("{}: the scenario text does not match its SHA-256", p.display())).with_hint(hint)
+        );
+    }
+    let mut s = Scenario::parse(&m.scenario_text, None).map_err(|e| e.context(p.display()))?;
+    for (name, v) in &m.parameters {
+        s.params.set(name, *v).map_err(|e| e.context(p.display()))?;
+    }
+    Ok(s)
 }
 
 /// The data rows of a part CSV (the text after its header, which must be the map's header).

@@ -60,9 +60,6 @@ fn print_listing(files: &[(PathBuf, String)]) {
 pub fn run_report(a: ReportArgs) -> Result<()> {
     let s = a.scenario.load()?;
     let opts = options_with(a.vary.as_deref(), a.from, a.to, a.family.as_deref(), &a.figure)?;
-    if let Some((name, _)) = &opts.family {
-        s.params.index(name).map_err(|e| e.context(format!("--family {name}")))?;
-    }
     let files = write_report(&s, &a.out, &opts)?;
     print_listing(&files);
     Ok(())

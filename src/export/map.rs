@@ -228,6 +228,12 @@ pub struct MapMeta {
     /// Hex SHA-256 of the CSV data rows (the bytes after the header), checked by `merge`.
     #[serde(default)]
     pub data_sha256: String,
+    /// The scenario file's text (its SHA-256 is `scenario_sha256`), so `merge` draws the figure of the whole run.
+    #[serde(default)]
+    pub scenario_text: String,
+    /// Why a whole map has no figure (too many cells), if it has none.
+    #[serde(skip_serializing_if = "Option::is_none", default)]
+    pub figure_note: Option<String>,
 }
 
 /// Row count and SHA-256 of CSV data rows, accumulated as they are written.
@@ -333,5 +339,7 @@ pub fn meta(
         csv_header: csv_header(s, spec),
         data_rows,
         data_sha256,
+        scenario_text: s.origin.text.clone(),
+        figure_note: None,
     }
 }

@@ -333,7 +333,8 @@ pub(crate) fn pdf_from_svg(svg: &str, provenance: &str, title: Option<&str>) -> 
         doc.title(TextStr(t));
     }
     doc.finish();
-    Ok(pdf.finish())
+    // The converter's hash maps order fonts and resources differently in each run: write one canonical form.
+    Ok(super::pdf_canon::canonical(&pdf.finish()))
 }
 
 /// Escape text for XML character data and attribute values (control characters, which XML 1.0 does not allow,

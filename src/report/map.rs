@@ -150,28 +150,50 @@ pub fn write_map(
         start = end;
     }
     csv.finish()?;
-    let m = meta(s, spec, summary, shard, digest);
+    let mut m = meta(s, spec, summary, shard, digest);
+    if shard.is_none() && !keep_cells {
+        let note = no_figure_note(spec);
+        crate::output::warn(&note);
+        m.figure_note = Some(note);
+    }
     let json_path = dir.join(format!("{stem}.json"));
     let json = serde_json::to_string_pretty(&m).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"));
     write_atomic(&json_path, json.as_bytes())?;
     let mut written = vec![csv_path, json_path];
     if keep_cells {
-        let (lo, hi) = match (spec.x.kind, spec.y.kind) {
-            (crate::scan::AxisKind::Radius, _) => (spec.x.lo, spec.x.hi),
-            _ => spec.radius_range,
-        };
-        let ov = super::figures::overlays(s, lo, hi);
-        let mut fig = super::figures::map_figure_with(
-            crate::export::map::map_provenance(s, spec),
-            spec,
-            &classes,
-            Some(&ov),
-            &s.symbols,
-        );
-        fig_opts.apply(&mut fig, crate::plot::StyleName::Classic);
+        let fig = map_file_figure(s, spec, &classes, crate::export::map::map_provenance(s, spec), fig_opts);
         written.extend(crate::plot::write_figure(&fig, dir, "map")?);
     }
     Ok(written)
+}
+
+/// The note written (stderr and `figure_note` in map.json) when a map is too large for its figure.
+pub fn no_figure_note(spec: &MapSpec) -> String {
+    format!(
+        "{} x {} = {} cells: more than {MAX_KEPT_CELLS}, so no figure was drawn (map.csv and map.json are complete)",
+        spec.x.n,
+        spec.y.n,
+        spec.x.n as u64 * spec.y.n as u64
+    )
+}
+
+/// The figure of a map written to files (`map` and `merge` draw the same one): classes, the horizon and
+/// photon-orbit overlays of the radius range, the scenario's symbols, the figure options.
+pub fn map_file_figure(
+    s: &Scenario,
+    spec: &MapSpec,
+    cells: &[Cell],
+    provenance: String,
+    fig_opts: &crate::plot::FigureOptions,
+) -> crate::plot::Figure {
+    let (lo, hi) = match (spec.x.kind, spec.y.kind) {
+        (crate::scan::AxisKind::Radius, _) => (spec.x.lo, spec.x.hi),
+        _ => spec.radius_range,
+    };
+    let ov = super::figures::overlays(s, lo, hi);
+    let mut fig = super::figures::map_figure_with(provenance, spec, cells, Some(&ov), &s.symbols);
+    fig_opts.apply(&mut fig, crate::plot::StyleName::Classic);
+    fig
 }
 
 #[cfg(test)]

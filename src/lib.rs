@@ -32,6 +32,7 @@ pub mod error;
 pub mod export;
 pub mod expr;
 pub mod geodesic;
+pub mod input;
 pub mod junction;
 pub mod metric;
 pub mod output;

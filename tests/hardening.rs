@@ -400,3 +400,86 @@ fn bad_vary_in_report_writes_no_file() {
     assert!(stderr(&o).contains("equation of state"), "{}", stderr(&o));
     assert!(!d.exists() || names(&d).is_empty());
 }
+
+#[cfg(unix)]
+#[test]
+fn fifo_as_scenario_is_refused_without_hanging() {
+    let t = tempfile::tempdir().unwrap();
+    let fifo = t.path().join("pipe.toml");
+    assert!(Command::new("mkfifo").arg(&fifo).status().unwrap().success());
+    // Nobody writes to the pipe: reading it would block for ever.
+    let o = run(&["check", &fifo.display().to_string()]);
+    assert_eq!(o.status.code(), Some(4), "{}", stderr(&o));
+    assert!(stderr(&o).contains("not a regular file"), "{}", stderr(&o));
+}
+
+#[test]
+fn scenario_larger_than_the_cap_is_refused() {
+    let t = tempfile::tempdir().unwrap();
+    let p = t.path().join("huge.toml");
+    let mut text = std::fs::read_to_string(wormhole()).unwrap();
+    text.push_str(&"#".repeat(17 << 20));
+    std::fs::write(&p, text).unwrap();
+    let o = run(&["check", &p.display().to_string()]);
+    assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+    assert!(stderr(&o).contains("larger than 16 MiB"), "{}", stderr(&o));
+}
+
+#[test]
+fn utf16_scenario_is_bad_input_with_a_hint() {
+    let t = tempfile::tempdir().unwrap();
+    let p = t.path().join("utf16.toml");
+    let text = std::fs::read_to_string(wormhole()).unwrap();
+    let mut bytes = vec![0xFF, 0xFE];
+    for u in text.encode_utf16() {
+        bytes.extend_from_slice(&u.to_le_bytes());
+    }
+    std::fs::write(&p, &bytes).unwrap();
+    let o = run(&["check", &p.display().to_string()]);
+    assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+    assert!(stderr(&o).contains("UTF-16") && stderr(&o).contains("save the file as UTF-8"), "{}", stderr(&o));
+    // Without its byte-order mark too.
+    std::fs::write(&p, &bytes[2..]).unwrap();
+    let o = run(&["check", &p.display().to_string()]);
+    assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+    assert!(stderr(&o).contains("UTF-8"), "{}", stderr(&o));
+}
+
+/// Static radius of the Schwarzschild thin-shell wormhole with p = w sigma: a0 = m (1 + 4w) / (1 + 2w)
+/// (static sigma0, p0 of Poisson & Visser 1995, Phys. Rev. D 52, 7318), so a0 = 4 m at w = -0.75.
+#[test]
+fn large_and_small_masses_keep_their_static_shell() {
+    for m in [1e20, 1e45, 1e-20] {
+        let o = run(&["statics", &wormhole(), "--set", &format!("m={m:e}"), "--format", "json"]);
+        assert!(o.status.success(), "m = {m}: {}", stderr(&o));
+        let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+        let radii = v["static_radii"].as_array().unwrap();
+        assert_eq!(radii.len(), 1, "m = {m}: {v}");
+        let a0 = radii[0]["radius"].as_f64().unwrap();
+        assert!((a0 / (4.0 * m) - 1.0).abs() < 1e-9, "m = {m}: a0 = {a0}");
+    }
+}
+
+#[test]
+fn flat_sum_of_many_terms_is_not_too_deep() {
+    // 1 - 2 m / r written as 1 - (2 m / r) / 300 repeated 300 times.
+    let t = tempfile::tempdir().unwrap();
+    let text = std::fs::read_to_string(wormhole()).unwrap();
+    let long = format!("1 {}", vec!["- 2*m/r/300"; 300].join(" "));
+    let p = t.path().join("flat.toml");
+    std::fs::write(&p, text.replace("A = \"1 - 2*m/r\"", &format!("A = \"{long}\""))).unwrap();
+    let a = run(&["derive", &p.display().to_string(), "--radius", "4", "--format", "json"]);
+    assert!(a.status.success(), "{}", stderr(&a));
+    let b = run(&["derive", &wormhole(), "--radius", "4", "--format", "json"]);
+    let (a, b): (serde_json::Value, serde_json::Value) =
+        (serde_json::from_slice(&a.stdout).unwrap(), serde_json::from_slice(&b.stdout).unwrap());
+    let (sa, sb) = (a["sigma"].as_f64().unwrap(), b["sigma"].as_f64().unwrap());
+    assert!((sa / sb - 1.0).abs() < 1e-12, "{sa} vs {sb}");
+}
+
+#[test]
+fn negative_values_need_no_equals_sign() {
+    let o = run(&["statics", &wormhole(), "--from", "-1", "--to", "5"]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(stderr(&o).contains("--from -1: radii must be positive"), "{}", stderr(&o));
+}

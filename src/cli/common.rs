@@ -43,10 +43,10 @@ impl ScenarioArgs {
 #[derive(Args, Debug, Clone)]
 pub struct RangeArgs {
     /// Lower end of the radius range (default: 1e-3 L, L the largest |parameter|, at least 1).
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     pub from: Option<f64>,
     /// Upper end of the radius range (default: 1e3 L).
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     pub to: Option<f64>,
 }
 
@@ -72,7 +72,7 @@ pub struct FigureArgs {
     #[arg(long)]
     pub width: Option<String>,
     /// Height / width of the figure (default 0.75).
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     pub aspect: Option<f64>,
     /// Horizontal axis limits LO:HI.
     #[arg(long, allow_hyphen_values = true)]

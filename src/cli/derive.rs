@@ -12,7 +12,7 @@ pub struct Args {
     #[command(flatten)]
     scenario: ScenarioArgs,
     /// Shell radius R (areal radius).
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     radius: f64,
     /// dR/dtau (timelike) or dR/dl (spacelike) for a moving shell; default 0 (static).
     #[arg(long, default_value_t = 0.0, allow_negative_numbers = true)]

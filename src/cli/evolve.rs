@@ -18,7 +18,7 @@ pub struct EvolveArgs {
     scenario: ScenarioArgs,
     /// Starting radius R; with --kick or --from-static a static radius a0 of the law (see `junctura statics`),
     /// within 1e-3 of one is moved onto it.
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     radius: f64,
     /// Start at rest at a0 + DA (a0 = --radius, a static radius).
     #[arg(long, allow_hyphen_values = true, value_name = "DA", conflicts_with_all = ["velocity", "sigma", "from_static"])]
@@ -41,7 +41,7 @@ pub struct EvolveArgs {
     #[arg(long)]
     stop_at_horizon: bool,
     /// Proper-time duration T (in the scenario's length unit).
-    #[arg(long, value_name = "T")]
+    #[arg(long, allow_negative_numbers = true, value_name = "T")]
     duration: f64,
     /// Stop after this many turning points.
     #[arg(long, default_value_t = 20)]
@@ -50,7 +50,7 @@ pub struct EvolveArgs {
     #[arg(long, value_name = "N", requires = "spread")]
     ensemble: Option<usize>,
     /// The kick spread S of the ensemble.
-    #[arg(long, value_name = "S", requires = "ensemble")]
+    #[arg(long, allow_negative_numbers = true, value_name = "S", requires = "ensemble")]
     spread: Option<f64>,
     /// Output format on stdout.
     #[arg(long, value_enum, default_value_t = Fmt::Text)]

@@ -131,7 +131,7 @@ pub struct MergeArgs {
 pub fn run_merge(a: MergeArgs) -> Result<()> {
     let mut metas: Vec<(MapMeta, PathBuf)> = Vec::new();
     for p in &a.parts {
-        let text = std::fs::read_to_string(p).map_err(|e| Error::io(p, &e))?;
+        let text = junctura::input::read_text(p, "map part file", junctura::input::MAX_TEXT_FILE)?;
         let m: MapMeta = serde_json::from_str(&text).map_err(|e| {
             Error::input(format!("{}: not a map part file: {e}", p.display()))
                 .with_hint("pass the map.part-K-of-N.json files")
@@ -257,7 +257,8 @@ fn part_scenario(m: &MapMeta, p: &std::path::Path) -> Result<Scenario> {
 
 /// The data rows of a part CSV (the text after its header, which must be the map's header).
 fn read_part_body(p: &std::path::Path, header: &str) -> Result<String> {
-    let text = std::fs::read_to_string(p).map_err(|e| Error::io(p, &e))?;
+    // Part data can be large (one row per cell): no size limit beyond memory, but only a regular UTF-8 file.
+    let text = junctura::input::read_text(p, "map part data file", u64::MAX >> 1)?;
     text.strip_prefix(header)
         .map(str::to_string)
         .ok_or_else(|| Error::input(format!("{}: its header differs from the part metadata", p.display())))

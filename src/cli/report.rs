@@ -18,10 +18,10 @@ pub struct ReportArgs {
     #[arg(long, allow_hyphen_values = true)]
     vary: Option<String>,
     /// Lower end of the radius range for plots and maps (default: the R-region where the shell can sit).
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     from: Option<f64>,
     /// Upper end of that range.
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     to: Option<f64>,
     /// Figures for several values of one parameter: NAME=v1,v2,... (critical beta^2, sigma0, p0, and a
     /// multi-panel map with one panel per value).

@@ -70,16 +70,16 @@ pub struct TuneArgs {
     #[arg(long)]
     solve: String,
     /// Put the static shell at this radius.
-    #[arg(long, conflicts_with = "marginal")]
+    #[arg(long, allow_negative_numbers = true, conflicts_with = "marginal")]
     radius: Option<f64>,
     /// Find static AND marginally stable configurations (V = V' = V'' = 0) with the radius in --from..--to.
     #[arg(long)]
     marginal: bool,
     /// Lower end of the radius range (with --marginal).
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     from: Option<f64>,
     /// Upper end of the radius range (with --marginal).
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     to: Option<f64>,
     /// Range LO:HI of the solved parameter to search (default: current value +- 10 max(|value|, 1)).
     #[arg(long, allow_hyphen_values = true)]

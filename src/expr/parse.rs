@@ -147,6 +147,27 @@ pub struct Parser<'a> {
 /// exhaust the stack in the recursive descent, in evaluation and when the tree is dropped).
 pub const MAX_DEPTH: usize = 200;
 
+/// Chains of + - (or * /) up to this many terms are built left-leaning (as written); longer ones balanced.
+const LEAN_CHAIN: usize = 16;
+
+/// A balanced tree over signed terms `(inverse, node)`; the first term's sign must be direct.
+fn balanced(mut terms: Vec<(bool, Node)>, direct: BinOp, inverse: BinOp) -> Node {
+    if terms.len() == 1 {
+        return terms.pop().map(|t| t.1).unwrap_or(Node::Num(0.0));
+    }
+    let mut right = terms.split_off(terms.len() / 2);
+    let left = balanced(terms, direct, inverse);
+    // x - r1 + r2 ... = x - (r1 - r2 ...): flip the signs of the right half when it starts with an inverse.
+    let flip = right[0].0;
+    if flip {
+        for t in right.iter_mut() {
+            t.0 = !t.0;
+        }
+    }
+    let r = balanced(right, direct, inverse);
+    Node::bin(if flip { inverse } else { direct }, left, r)
+}
+
 impl<'a> Parser<'a> {
     /// Parse `src` as a function of `var` with the parameters `params` (by name; `Node::Param(k)` refers to
     /// `params[k]`).
@@ -188,43 +209,54 @@ impl<'a> Parser<'a> {
     }
 
     fn sum(&mut self) -> Result<Node, ParseError> {
-        // Each further term deepens the left-leaning tree by one level: count it like a nesting level.
-        let base = self.depth;
-        let mut lhs = self.product()?;
-        loop {
-            let op = match self.peek() {
-                Tok::Op('+') => BinOp::Add,
-                Tok::Op('-') => BinOp::Sub,
-                _ => {
-                    self.depth = base;
-                    return Ok(lhs);
-                }
-            };
-            self.bump();
-            self.depth += 1;
-            let rhs = self.product()?;
-            lhs = Node::bin(op, lhs, rhs);
-        }
+        self.chain(Parser::product, |t| match t {
+            Tok::Op('+') => Some((BinOp::Add, false)),
+            Tok::Op('-') => Some((BinOp::Sub, true)),
+            _ => None,
+        })
     }
 
     fn product(&mut self) -> Result<Node, ParseError> {
-        // Each further term deepens the left-leaning tree by one level: count it like a nesting level.
+        self.chain(Parser::unary, |t| match t {
+            Tok::Op('*') => Some((BinOp::Mul, false)),
+            Tok::Op('/') => Some((BinOp::Div, true)),
+            _ => None,
+        })
+    }
+
+    /// A chain `t0 op t1 op t2 ...` of one precedence level (`op` gives the operator and whether it is the
+    /// inverse one, - or /). Up to [`LEAN_CHAIN`] terms build the usual left-leaning tree, each further term
+    /// counted as a nesting level; a longer chain is built as a balanced tree of the same value (terms are
+    /// regrouped, signs kept: a - b - c - d = (a - b) - (c + d)), so its depth grows with log2 of its length
+    /// and flat sums of any length are accepted.
+    fn chain(
+        &mut self,
+        term: fn(&mut Self) -> Result<Node, ParseError>,
+        op: fn(&Tok) -> Option<(BinOp, bool)>,
+    ) -> Result<Node, ParseError> {
         let base = self.depth;
-        let mut lhs = self.unary()?;
-        loop {
-            let op = match self.peek() {
-                Tok::Op('*') => BinOp::Mul,
-                Tok::Op('/') => BinOp::Div,
-                _ => {
-                    self.depth = base;
-                    return Ok(lhs);
-                }
-            };
+        let mut terms = vec![(false, term(self)?)];
+        while let Some((_, inverse)) = op(self.peek()) {
             self.bump();
-            self.depth += 1;
-            let rhs = self.unary()?;
-            lhs = Node::bin(op, lhs, rhs);
+            self.depth = base + terms.len().min(LEAN_CHAIN);
+            let rhs = term(self);
+            self.depth = base;
+            terms.push((inverse, rhs?));
         }
+        self.depth = base;
+        let (direct, inverse) = match op(&Tok::Op('+')) {
+            Some(_) => (BinOp::Add, BinOp::Sub),
+            None => (BinOp::Mul, BinOp::Div),
+        };
+        if terms.len() <= LEAN_CHAIN {
+            let mut it = terms.into_iter();
+            let mut lhs = it.next().map(|t| t.1).ok_or_else(|| self.error_here("empty chain".into()))?;
+            for (inv, rhs) in it {
+                lhs = Node::bin(if inv { inverse } else { direct }, lhs, rhs);
+            }
+            return Ok(lhs);
+        }
+        Ok(balanced(terms, direct, inverse))
     }
 
     /// Every nesting level (parentheses, calls, signs, exponents) passes through here, so the depth is
@@ -354,9 +386,18 @@ impl<'a> Parser<'a> {
     }
 }
 
-/// The closest of `candidates` to `name` by Jaro-Winkler similarity, if it is close enough to suggest.
+/// Longest name (in bytes) for which a suggestion is searched: the similarity costs length x length, and a
+/// name this long is no typo of a short one.
+pub const MAX_SUGGEST_LEN: usize = 64;
+
+/// The closest of `candidates` to `name` by Jaro-Winkler similarity, if it is close enough to suggest. Names or
+/// candidates longer than [`MAX_SUGGEST_LEN`] are not compared.
 pub fn closest<'c>(name: &str, candidates: impl Iterator<Item = &'c str>) -> Option<&'c str> {
+    if name.len() > MAX_SUGGEST_LEN {
+        return None;
+    }
     candidates
+        .filter(|c| c.len() <= MAX_SUGGEST_LEN)
         .map(|c| (strsim::jaro_winkler(name, c), c))
         .filter(|(s, _)| *s > 0.75)
         .max_by(|a, b| a.0.total_cmp(&b.0))
@@ -424,5 +465,28 @@ mod tests {
         assert!(e.hint.as_deref().unwrap().contains("known parameters: m, q, e"), "{e}");
         let e = p("sqr(r)").unwrap_err();
         assert!(e.hint.as_deref().unwrap().contains("'sqrt'"), "{e}");
+    }
+
+    #[test]
+    fn flat_chains_of_any_length_are_not_too_deep() {
+        // common practice: a flat sum is not nested; its value is the plain sum (integers, so exact).
+        let terms: Vec<String> =
+            (1..=500).map(|k| if k % 3 == 0 { format!("- {k}*r") } else { format!("+ {k}*r") }).collect();
+        let src = format!("0 {}", terms.join(" "));
+        let n = p(&src).expect("500 terms are a flat sum");
+        let expected: f64 = (1..=500).map(|k| if k % 3 == 0 { -(k as f64) } else { k as f64 }).sum();
+        assert_eq!(crate::expr::eval::eval_node(&n, 1.0f64, |_| 0.0), expected);
+        let prod =
+            format!("r {}", (0..300).map(|k| if k % 2 == 0 { "* 2" } else { "/ 2" }).collect::<Vec<_>>().join(" "));
+        assert_eq!(crate::expr::eval::eval_node(&p(&prod).unwrap(), 3.0f64, |_| 0.0), 3.0);
+        let mixed = format!("1 {}", (0..40).map(|k| if k < 20 { "- 1" } else { "+ 2" }).collect::<Vec<_>>().join(" "));
+        assert_eq!(crate::expr::eval::eval_node(&p(&mixed).unwrap(), 0.0f64, |_| 0.0), 1.0 - 20.0 + 40.0);
+        // Short chains keep the tree as written.
+        assert_eq!(
+            p("r - 1 - 2").unwrap(),
+            Node::bin(BinOp::Sub, Node::bin(BinOp::Sub, Node::Var, Node::Num(1.0)), Node::Num(2.0))
+        );
+        // Nesting is still limited.
+        assert!(p(&format!("{}r{}", "(".repeat(300), ")".repeat(300))).is_err());
     }
 }

@@ -111,8 +111,7 @@ impl Stage {
 impl Chain {
     /// Read and validate a chain file (scenario paths are relative to its folder).
     pub fn load(path: &Path) -> Result<Chain> {
-        let text = std::fs::read_to_string(path)
-            .map_err(|e| Error::io(path, &e).with_hint("check the path of the chain file"))?;
+        let text = crate::input::read_text(path, "chain file", crate::input::MAX_TEXT_FILE)?;
         Chain::parse(&text, Some(path))
     }
 

@@ -150,6 +150,26 @@ pub const MAX_DEPTH: usize = 200;
 /// Chains of + - (or * /) up to this many terms are built left-leaning (as written); longer ones balanced.
 const LEAN_CHAIN: usize = 16;
 
+/// The tree of a chain of terms `(inverse, node)` of one precedence level (the first term is direct): up to
+/// [`LEAN_CHAIN`] terms the usual left-leaning tree, as written; a longer chain a balanced tree of the same value
+/// (terms regrouped, signs kept: a - b - c - d = (a - b) - (c + d)), so its depth grows with log2 of its length
+/// and flat sums of any length are accepted.
+#[inline(never)]
+fn finish_chain(terms: Vec<(bool, Node)>, direct: BinOp, inverse: BinOp) -> Node {
+    if terms.len() > LEAN_CHAIN {
+        return balanced(terms, direct, inverse);
+    }
+    let mut it = terms.into_iter();
+    let mut lhs = match it.next() {
+        Some((_, n)) => n,
+        None => return Node::Num(0.0),
+    };
+    for (inv, rhs) in it {
+        lhs = Node::bin(if inv { inverse } else { direct }, lhs, rhs);
+    }
+    lhs
+}
+
 /// A balanced tree over signed terms `(inverse, node)`; the first term's sign must be direct.
 fn balanced(mut terms: Vec<(bool, Node)>, direct: BinOp, inverse: BinOp) -> Node {
     if terms.len() == 1 {
@@ -208,55 +228,45 @@ impl<'a> Parser<'a> {
         ParseError { message, column: self.col(), source: self.src.to_string(), hint: None }
     }
 
+    /// A chain `t0 ± t1 ± t2 ...`: see [`finish_chain`] for how it becomes a tree. Each further term is counted
+    /// as a nesting level up to [`LEAN_CHAIN`] (the depth of the tree it can add).
     fn sum(&mut self) -> Result<Node, ParseError> {
-        self.chain(Parser::product, |t| match t {
-            Tok::Op('+') => Some((BinOp::Add, false)),
-            Tok::Op('-') => Some((BinOp::Sub, true)),
-            _ => None,
-        })
-    }
-
-    fn product(&mut self) -> Result<Node, ParseError> {
-        self.chain(Parser::unary, |t| match t {
-            Tok::Op('*') => Some((BinOp::Mul, false)),
-            Tok::Op('/') => Some((BinOp::Div, true)),
-            _ => None,
-        })
-    }
-
-    /// A chain `t0 op t1 op t2 ...` of one precedence level (`op` gives the operator and whether it is the
-    /// inverse one, - or /). Up to [`LEAN_CHAIN`] terms build the usual left-leaning tree, each further term
-    /// counted as a nesting level; a longer chain is built as a balanced tree of the same value (terms are
-    /// regrouped, signs kept: a - b - c - d = (a - b) - (c + d)), so its depth grows with log2 of its length
-    /// and flat sums of any length are accepted.
-    fn chain(
-        &mut self,
-        term: fn(&mut Self) -> Result<Node, ParseError>,
-        op: fn(&Tok) -> Option<(BinOp, bool)>,
-    ) -> Result<Node, ParseError> {
         let base = self.depth;
-        let mut terms = vec![(false, term(self)?)];
-        while let Some((_, inverse)) = op(self.peek()) {
+        let mut terms = vec![(false, self.product()?)];
+        loop {
+            let inverse = match self.peek() {
+                Tok::Op('+') => false,
+                Tok::Op('-') => true,
+                _ => break,
+            };
             self.bump();
             self.depth = base + terms.len().min(LEAN_CHAIN);
-            let rhs = term(self);
+            let rhs = self.product();
             self.depth = base;
             terms.push((inverse, rhs?));
         }
         self.depth = base;
-        let (direct, inverse) = match op(&Tok::Op('+')) {
-            Some(_) => (BinOp::Add, BinOp::Sub),
-            None => (BinOp::Mul, BinOp::Div),
-        };
-        if terms.len() <= LEAN_CHAIN {
-            let mut it = terms.into_iter();
-            let mut lhs = it.next().map(|t| t.1).ok_or_else(|| self.error_here("empty chain".into()))?;
-            for (inv, rhs) in it {
-                lhs = Node::bin(if inv { inverse } else { direct }, lhs, rhs);
-            }
-            return Ok(lhs);
+        Ok(finish_chain(terms, BinOp::Add, BinOp::Sub))
+    }
+
+    /// A chain `t0 * t1 / t2 ...`, as [`Parser::sum`].
+    fn product(&mut self) -> Result<Node, ParseError> {
+        let base = self.depth;
+        let mut terms = vec![(false, self.unary()?)];
+        loop {
+            let inverse = match self.peek() {
+                Tok::Op('*') => false,
+                Tok::Op('/') => true,
+                _ => break,
+            };
+            self.bump();
+            self.depth = base + terms.len().min(LEAN_CHAIN);
+            let rhs = self.unary();
+            self.depth = base;
+            terms.push((inverse, rhs?));
         }
-        Ok(balanced(terms, direct, inverse))
+        self.depth = base;
+        Ok(finish_chain(terms, BinOp::Mul, BinOp::Div))
     }
 
     /// Every nesting level (parentheses, calls, signs, exponents) passes through here, so the depth is

@@ -318,7 +318,12 @@ pub fn verify_part(
 }
 
 /// Build the metadata.
-pub fn meta(
+pub fn meta(s: &Scenario, spec: &MapSpec, summary: Summary, shard: Option<(usize, usize)>) -> MapMeta {
+    meta_with_data(s, spec, summary, shard, DataDigest::default())
+}
+
+/// The metadata of a map whose CSV data rows went through `data` (row count and SHA-256, checked by `merge`).
+pub fn meta_with_data(
     s: &Scenario,
     spec: &MapSpec,
     summary: Summary,

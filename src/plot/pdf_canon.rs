@@ -163,8 +163,8 @@ fn try_canonical(pdf: &[u8]) -> Option<Vec<u8>> {
         }
     }
     for n in order {
-        if !new_num.contains_key(&n) {
-            new_num.insert(n, seq.len() as u32 + 1);
+        if let std::collections::hash_map::Entry::Vacant(e) = new_num.entry(n) {
+            e.insert(seq.len() as u32 + 1);
             seq.push(n);
         }
     }

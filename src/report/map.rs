@@ -3,7 +3,7 @@
 //! [`crate::scan::evaluate_lines`]; this module only orders, counts and writes them.
 
 use crate::error::{Error, Result};
-use crate::export::map::{csv_header, csv_rows, meta};
+use crate::export::map::{csv_header, csv_rows};
 use crate::metric::default_range;
 use crate::output::{write_atomic, AtomicFile};
 use crate::request::{parse_axis, range};
@@ -150,7 +150,7 @@ pub fn write_map(
         start = end;
     }
     csv.finish()?;
-    let mut m = meta(s, spec, summary, shard, digest);
+    let mut m = crate::export::map::meta_with_data(s, spec, summary, shard, digest);
     if shard.is_none() && !keep_cells {
         let note = no_figure_note(spec);
         crate::output::warn(&note);

@@ -56,6 +56,11 @@ impl Error {
         Error { kind: ErrorKind::Io, message: format!("{}: {}", path.display(), err), hint: None }
     }
 
+    /// I/O failure described by a message that already names the path.
+    pub fn io_msg(message: impl Into<String>) -> Self {
+        Error { kind: ErrorKind::Io, message: message.into(), hint: None }
+    }
+
     /// Attach a hint.
     pub fn with_hint(mut self, hint: impl Into<String>) -> Self {
         self.hint = Some(hint.into());

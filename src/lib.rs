@@ -33,6 +33,7 @@ pub mod error;
 pub mod export;
 pub mod expr;
 pub mod geodesic;
+pub mod input;
 pub mod junction;
 pub mod metric;
 pub mod output;
@@ -45,6 +46,7 @@ pub mod scan;
 pub mod scenario;
 pub mod statics;
 pub mod survey;
+pub mod text;
 pub mod units;
 
 pub use error::{Error, ErrorKind, Result};

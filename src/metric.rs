@@ -233,13 +233,17 @@ pub fn survey(fns: &SideFns, lo: f64, hi: f64, opts: &RootOptions) -> SideSurvey
 
 /// A length scale for default ranges: the largest |parameter| (at least 1), a proxy for M in geometric units.
 pub fn length_scale(scenario: &Scenario) -> f64 {
-    scenario.params.values().iter().fold(1.0f64, |m, v| m.max(v.abs())).min(1e12)
+    scenario.params.values().iter().fold(1.0f64, |m, v| m.max(v.abs()))
 }
 
-/// The default radius range for surveys: [1e-3 L, 1e3 L] with L from [`length_scale`].
+/// The default radius range for surveys: [1e-3 l, 1e3 L] with L from [`length_scale`] and l = 1, or the smallest
+/// non-zero |parameter| when that is below 1e-3 (so a tiny mass, e.g. m = 1e-20, still has its static radii in
+/// range; the root search samples radii logarithmically).
 pub fn default_range(scenario: &Scenario) -> (f64, f64) {
     let l = length_scale(scenario);
-    (1e-3 * l, 1e3 * l)
+    let small = scenario.params.values().iter().map(|v| v.abs()).filter(|&v| v > 0.0).fold(1.0f64, f64::min);
+    let low = if small < 1e-3 { small } else { 1.0 };
+    (1e-3 * low, 1e3 * l)
 }
 
 #[cfg(test)]

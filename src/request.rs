@@ -3,10 +3,31 @@
 
 use crate::Result;
 
+/// Largest magnitude accepted for a physical value given on the command line (radius, velocity, energy, axis
+/// end, range end): the square of such a value and its product with another stay finite in f64
+/// (1e200 < f64::MAX ~ 1.8e308), so no junction quantity overflows before it is computed.
+pub const MAX_MAGNITUDE: f64 = 1e100;
+
+/// A finite value with |v| <= [`MAX_MAGNITUDE`]; `flag` names the option in the message.
+pub fn value(flag: &str, v: f64) -> Result<f64> {
+    if !v.is_finite() {
+        return Err(crate::Error::input(format!("{flag} {v}: not a finite number")).with_hint("give a finite value"));
+    }
+    if v.abs() > MAX_MAGNITUDE {
+        return Err(crate::Error::input(format!("{flag} {v:e}: |value| above {MAX_MAGNITUDE:e} is refused"))
+            .with_hint(
+                "such values overflow floating point once squared; rescale your units (README \"Cautions and limits\")",
+            ));
+    }
+    Ok(v)
+}
+
 /// Check an optional radius range given on the command line.
 pub fn range(from: Option<f64>, to: Option<f64>, default: (f64, f64)) -> Result<(f64, f64)> {
     let lo = from.unwrap_or(default.0);
     let hi = to.unwrap_or(default.1);
+    value("--from", lo)?;
+    value("--to", hi)?;
     if !(lo.is_finite() && hi.is_finite()) || lo >= hi {
         return Err(crate::Error::input(format!("the range --from {lo} --to {hi} is empty or not finite"))
             .with_hint("give --from LO --to HI with LO < HI"));
@@ -52,6 +73,9 @@ pub fn parse_axis(flag: &str, spec: &str) -> Result<AxisSpec> {
         let v: f64 = s.trim().parse().map_err(|_| bad(&format!("{what} '{s}' is not a number")))?;
         if !v.is_finite() {
             return Err(bad(&format!("{what} '{s}' is not finite")));
+        }
+        if v.abs() > MAX_MAGNITUDE {
+            return Err(bad(&format!("|{what}| = {:e} is above {MAX_MAGNITUDE:e} (its square overflows)", v.abs())));
         }
         Ok(v)
     };

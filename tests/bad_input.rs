@@ -307,7 +307,7 @@ fn catalogue() -> Vec<Case> {
             4,
             &["absent.toml", "No such file"],
         ),
-        case("unreadable_file_is_a_folder", None, &["check", "{D}"], 4, &["Is a directory"]),
+        case("unreadable_file_is_a_folder", None, &["check", "{D}"], 4, &["{D}: is a folder"]),
         case(
             "map_out_under_a_regular_file",
             base(),
@@ -438,7 +438,113 @@ fn catalogue() -> Vec<Case> {
             2,
             &["--ensemble", "static-radius start"],
         ),
+        // Hardening: injected text, overflowing values, unbounded reads, extreme scales, late validation.
+        case(
+            "name_with_newline",
+            Some(edit("name = \"bad-input base\"", "name = \"evil\\n0,0,1\"")),
+            &["derive", "{S}", "--radius", "4", "--format", "csv"],
+            2,
+            &["{S}:1:8", "control character \\n"],
+        ),
+        case(
+            "name_with_terminal_escape",
+            Some(edit("name = \"bad-input base\"", "name = \"x\\u001b[2J\"")),
+            derive4,
+            2,
+            &["{S}:1:8", "\\u{1b}"],
+        ),
+        case(
+            "symbol_with_tex_file_command",
+            Some(format!("{BASE}[symbols]\nw = '\\input{{/etc/passwd}}'\n")),
+            derive4,
+            2,
+            &["{S}:14:1", "\\input"],
+        ),
+        case(
+            "figure_label_with_control_character",
+            base(),
+            &["map", "{S}", "--x", "radius:2.5:3:3", "--y", "beta2:0:1:3", "--out", "{D}/o", "--ylabel", "a\u{7}"],
+            2,
+            &["--ylabel"],
+        ),
+        case(
+            "axis_span_overflows",
+            base(),
+            &["map", "{S}", "--x", "radius:2.5:3:3", "--y", "w:-1.7e308:1.7e308:3", "--summary"],
+            2,
+            &["--y w:-1.7e308:1.7e308:3", "above 1e100"],
+        ),
+        case(
+            "evolve_velocity_overflows",
+            base(),
+            &["evolve", "{S}", "--radius", "4", "--duration", "1", "--velocity", "1e200"],
+            2,
+            &["--velocity 1e200"],
+        ),
+        case(
+            "geodesic_energy_overflows",
+            base(),
+            &["geodesic", "{S}", "--radius", "4", "--energy", "1e308", "--format", "csv"],
+            2,
+            &["--energy 1e308"],
+        ),
+        case("scenario_is_dev_zero", None, &["check", "/dev/zero"], 4, &["/dev/zero", "not a regular file"]),
+        case(
+            "parameter_too_large",
+            base(),
+            &["statics", "{S}", "--set", "m=1e60"],
+            2,
+            &["parameter 'm' = 1e60", "1e50"],
+        ),
+        case(
+            "parameter_too_large_in_file",
+            Some(edit("m = 1.0", "m = 1e300")),
+            derive4,
+            2,
+            &["{S}:3:1", "parameter 'm' = 1e300"],
+        ),
+        case("parameter_too_small", base(), &["statics", "{S}", "--set", "m=1e-60"], 2, &["parameter 'm' = 1e-60"]),
+        case(
+            "report_bad_vary_before_any_file",
+            base(),
+            &["report", "{S}", "--out", "{D}/rep", "--vary", "ww:0:1:5"],
+            2,
+            &["--vary ww", "did you mean 'w'"],
+        ),
+        case(
+            "negative_radius_without_equals",
+            base(),
+            &["derive", "{S}", "--radius", "-4"],
+            2,
+            &["--radius -4", "positive"],
+        ),
+        case(
+            "negative_range_without_equals",
+            base(),
+            &["statics", "{S}", "--from", "-1", "--to", "5"],
+            2,
+            &["--from -1"],
+        ),
+        case(
+            "dimension_above_the_limit",
+            Some(edit("[parameters]", "dimension = 65\n[parameters]")),
+            derive4,
+            2,
+            &["{S}:2:13", "4 <= D <= 64"],
+        ),
+        case(
+            "long_unknown_name_answers_at_once",
+            base(),
+            &["derive", "{S}", "--radius", "4", "--set", long_name()],
+            2,
+            &["unknown parameter"],
+        ),
     ]
+}
+
+/// `--set NAME=1` with a 100 KB name (the suggestion search used to take seconds on it).
+fn long_name() -> &'static str {
+    Box::leak(format!("{}=1", "x".repeat(100_000)).into_boxed_str())
 }
 
 fn subst(s: &str, scen: &Path, dir: &Path, file: &Path) -> String {

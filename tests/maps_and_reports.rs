@@ -94,7 +94,7 @@ fn shards_merge_byte_identically() {
     a.extend(["--out".into(), merged.to_str().unwrap().into()]);
     let a: Vec<&str> = a.iter().map(|s| s.as_str()).collect();
     ok(&a);
-    for f in ["map.csv", "map.json"] {
+    for f in ["map.csv", "map.json", "map.svg", "map.pdf", "map.png"] {
         let x = std::fs::read(whole.join(f)).unwrap();
         let y = std::fs::read(merged.join(f)).unwrap();
         assert!(x == y, "{f} differs between the whole and the merged run");

@@ -482,6 +482,18 @@ fn evolve_adapter(
     ensemble: Option<(usize, f64)>,
 ) -> PyResult<(junctura::dynamics::EvolveReport, Vec<(&'static str, junctura::plot::Figure)>)> {
     use junctura::dynamics::{evolve, EvolveOptions, Start};
+    for (name, v) in [
+        ("radius", Some(radius)),
+        ("duration", Some(duration)),
+        ("kick", start.kick),
+        ("velocity", start.velocity),
+        ("sigma", start.sigma),
+        ("spread", ensemble.map(|e| e.1)),
+    ] {
+        if let Some(v) = v {
+            junctura::request::value(name, v).py(py)?;
+        }
+    }
     let outward = match start.direction {
         None => None,
         Some("outward") => Some(true),

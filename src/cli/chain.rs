@@ -78,7 +78,7 @@ pub fn run(args: Args) -> Result<()> {
     }
     match args.format {
         ChainFormat::Json => print_stdout(&json),
-        ChainFormat::Csv => print_stdout(&csv),
+        ChainFormat::Csv => junctura::output::print_csv(&csv)?,
         ChainFormat::Text => print_stdout(&text(&report, unit.is_some())),
     }
     Ok(())
@@ -89,7 +89,7 @@ fn e(v: Option<f64>) -> String {
 }
 
 fn text(r: &ChainReport, si: bool) -> String {
-    let mut o = format!("chain: {}\n{}\n", r.chain, r.provenance);
+    let mut o = format!("chain: {}\n{}\n", junctura::text::one_line(&r.chain), junctura::text::one_line(&r.provenance));
     if let Some(l) = r.length_unit_m {
         o.push_str(&format!("lengths in units of G M/c^2 = {l:.9e} m (and in m)\n"));
     }

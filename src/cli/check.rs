@@ -25,7 +25,7 @@ pub fn run(args: Args) -> Result<()> {
     match args.format {
         Format::Json => print_stdout(&to_json(&report)),
         Format::Text | Format::Latex => print_stdout(&text(&report)),
-        Format::Csv => print_stdout(&csv(&report)),
+        Format::Csv => junctura::output::print_csv(&csv(&report))?,
     }
     Ok(())
 }
@@ -33,7 +33,12 @@ pub fn run(args: Args) -> Result<()> {
 fn text(r: &SurveyReport) -> String {
     let mut o = format!(
         "scenario: {}\n{}\nshell: {}, D = {}, radii {} .. {}\n",
-        r.scenario, r.provenance, r.shell_kind, r.dimension, r.from, r.to
+        junctura::text::one_line(&r.scenario),
+        junctura::text::one_line(&r.provenance),
+        r.shell_kind,
+        r.dimension,
+        r.from,
+        r.to
     );
     for (name, sd) in [("minus", &r.minus), ("plus", &r.plus)] {
         o.push_str(&format!(
@@ -69,7 +74,7 @@ fn text(r: &SurveyReport) -> String {
 
 /// One row per horizon, photon orbit and region boundary of each side.
 fn csv(r: &SurveyReport) -> String {
-    let mut o = format!("# {}\nside,feature,radius [M],detail\n", r.provenance);
+    let mut o = format!("# {}\nside,feature,radius [M],detail\n", junctura::text::one_line(&r.provenance));
     for (name, sd) in [("minus", &r.minus), ("plus", &r.plus)] {
         for h in &sd.survey.horizons {
             o.push_str(&format!(

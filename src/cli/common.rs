@@ -43,10 +43,10 @@ impl ScenarioArgs {
 #[derive(Args, Debug, Clone)]
 pub struct RangeArgs {
     /// Lower end of the radius range (default: 1e-3 L, L the largest |parameter|, at least 1).
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     pub from: Option<f64>,
     /// Upper end of the radius range (default: 1e3 L).
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     pub to: Option<f64>,
 }
 
@@ -72,7 +72,7 @@ pub struct FigureArgs {
     #[arg(long)]
     pub width: Option<String>,
     /// Height / width of the figure (default 0.75).
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     pub aspect: Option<f64>,
     /// Horizontal axis limits LO:HI.
     #[arg(long, allow_hyphen_values = true)]
@@ -134,6 +134,15 @@ impl FigureArgs {
                     .with_hint("auto, upper-right, upper-left, lower-right, lower-left, above or none")
             })?),
         };
+        for (opt, v) in [("--xlabel", &self.xlabel), ("--ylabel", &self.ylabel)] {
+            if let Some((_, c)) = v.as_deref().and_then(junctura::text::unsafe_char) {
+                return Err(junctura::Error::input(format!(
+                    "{opt}: the label contains the control character {}",
+                    junctura::text::one_line(&c.to_string())
+                ))
+                .with_hint("give the label as one line of plain text"));
+            }
+        }
         Ok(FigureOptions {
             style,
             width_cm,

@@ -12,7 +12,7 @@ pub struct Args {
     #[command(flatten)]
     scenario: ScenarioArgs,
     /// Shell radius R (areal radius).
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     radius: f64,
     /// dR/dtau (timelike) or dR/dl (spacelike) for a moving shell; default 0 (static).
     #[arg(long, default_value_t = 0.0, allow_negative_numbers = true)]
@@ -34,9 +34,7 @@ pub struct Args {
 pub fn run(args: Args) -> Result<()> {
     let s = args.scenario.load()?;
     for (name, v) in [("--radius", args.radius), ("--velocity", args.velocity), ("--acceleration", args.acceleration)] {
-        if !v.is_finite() {
-            return Err(Error::input(format!("{name} {v} is not a finite number")));
-        }
+        junctura::request::value(name, v)?;
     }
     if args.radius <= 0.0 {
         return Err(Error::input(format!("--radius {}: the areal radius must be positive", args.radius)));
@@ -51,7 +49,7 @@ pub fn run(args: Args) -> Result<()> {
             print_stdout(&to_json(&rep))
         }
         Format::Text => print_stdout(&text(&rep)),
-        Format::Csv => print_stdout(&junctura::export::derive::csv(&rep)),
+        Format::Csv => junctura::output::print_csv(&junctura::export::derive::csv(&rep))?,
         Format::Latex => {
             for w in &rep.warnings {
                 warn(w);

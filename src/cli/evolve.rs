@@ -18,7 +18,7 @@ pub struct EvolveArgs {
     scenario: ScenarioArgs,
     /// Starting radius R; with --kick or --from-static a static radius a0 of the law (see `junctura statics`),
     /// within 1e-3 of one is moved onto it.
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     radius: f64,
     /// Start at rest at a0 + DA (a0 = --radius, a static radius).
     #[arg(long, allow_hyphen_values = true, value_name = "DA", conflicts_with_all = ["velocity", "sigma", "from_static"])]
@@ -41,7 +41,7 @@ pub struct EvolveArgs {
     #[arg(long)]
     stop_at_horizon: bool,
     /// Proper-time duration T (in the scenario's length unit).
-    #[arg(long, value_name = "T")]
+    #[arg(long, allow_negative_numbers = true, value_name = "T")]
     duration: f64,
     /// Stop after this many turning points.
     #[arg(long, default_value_t = 20)]
@@ -50,7 +50,7 @@ pub struct EvolveArgs {
     #[arg(long, value_name = "N", requires = "spread")]
     ensemble: Option<usize>,
     /// The kick spread S of the ensemble.
-    #[arg(long, value_name = "S", requires = "ensemble")]
+    #[arg(long, allow_negative_numbers = true, value_name = "S", requires = "ensemble")]
     spread: Option<f64>,
     /// Output format on stdout.
     #[arg(long, value_enum, default_value_t = Fmt::Text)]
@@ -73,6 +73,18 @@ pub enum Direction {
 
 pub fn run(a: EvolveArgs) -> Result<()> {
     let s = a.scenario.load()?;
+    for (flag, v) in [
+        ("--radius", Some(a.radius)),
+        ("--duration", Some(a.duration)),
+        ("--kick", a.kick),
+        ("--velocity", a.velocity),
+        ("--sigma", a.sigma),
+        ("--spread", a.spread),
+    ] {
+        if let Some(v) = v {
+            junctura::request::value(flag, v)?;
+        }
+    }
     let outward = a.direction.map(|d| d == Direction::Outward);
     let Some(start) = Start::from_options(a.kick, a.velocity, a.sigma, outward, a.from_static) else {
         return Err(Error::input("give one of --kick DA, --velocity V or --sigma S (or --from-static)")
@@ -103,7 +115,7 @@ pub fn run(a: EvolveArgs) -> Result<()> {
     match a.format {
         Fmt::Json => print_stdout(&ex::evolve_json(&rep)),
         Fmt::Text => print_stdout(&ex::evolve_text(&rep)),
-        Fmt::Csv => print_stdout(&ex::evolve_csv(&rep)),
+        Fmt::Csv => junctura::output::print_csv(&ex::evolve_csv(&rep))?,
     }
     Ok(())
 }

@@ -53,6 +53,9 @@ pub struct Args {
 
 pub fn run(args: Args) -> Result<()> {
     let s = args.scenario.load()?;
+    for (flag, v) in [("--radius", args.radius), ("--energy", args.energy), ("--shell-velocity", args.shell_velocity)] {
+        junctura::request::value(flag, v)?;
+    }
     let particle = if args.null { Particle::Null } else { Particle::Timelike };
     let direction = args.direction.map(|d| match d {
         DirectionArg::Inward => Direction::Inward,
@@ -69,7 +72,7 @@ pub fn run(args: Args) -> Result<()> {
     match args.format {
         GeoFormat::Json => print_stdout(&to_json(&report)),
         GeoFormat::Text => print_stdout(&text(&report)),
-        GeoFormat::Csv => print_stdout(&csv(&report)),
+        GeoFormat::Csv => junctura::output::print_csv(&csv(&report))?,
     }
     Ok(())
 }
@@ -85,7 +88,12 @@ fn text(r: &CrossingReport) -> String {
     };
     let mut o = format!(
         "scenario: {}\n{}\n{} shell at R = {}, dR/dtau = {}; radial {what} with E = {} on the minus side\n",
-        r.scenario, r.provenance, r.shell_kind, r.radius, r.shell_velocity, r.energy_minus
+        junctura::text::one_line(&r.scenario),
+        junctura::text::one_line(&r.provenance),
+        r.shell_kind,
+        r.radius,
+        r.shell_velocity,
+        r.energy_minus
     );
     if !r.can_cross {
         o.push_str(&format!("cannot cross: {}\n", r.reason.as_deref().unwrap_or("")));
@@ -135,6 +143,6 @@ fn csv(r: &CrossingReport) -> String {
     let reason = r.reason.clone().unwrap_or_default().replace(',', ";");
     format!(
         "# {}\nradius [M],shell_velocity [1],energy_minus [1],energy_plus [1],relative_lorentz_factor [1],can_cross,reason\n{:?},{:?},{:?},{},{},{},{}\n",
-        r.provenance, r.radius, r.shell_velocity, r.energy_minus, o(r.energy_plus), o(r.relative_lorentz_factor), r.can_cross, reason
+        junctura::text::one_line(&r.provenance), r.radius, r.shell_velocity, r.energy_minus, o(r.energy_plus), o(r.relative_lorentz_factor), r.can_cross, reason
     )
 }

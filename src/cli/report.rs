@@ -18,10 +18,10 @@ pub struct ReportArgs {
     #[arg(long, allow_hyphen_values = true)]
     vary: Option<String>,
     /// Lower end of the radius range for plots and maps (default: the R-region where the shell can sit).
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     from: Option<f64>,
     /// Upper end of that range.
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     to: Option<f64>,
     /// Figures for several values of one parameter: NAME=v1,v2,... (critical beta^2, sigma0, p0, and a
     /// multi-panel map with one panel per value).
@@ -60,9 +60,6 @@ fn print_listing(files: &[(PathBuf, String)]) {
 pub fn run_report(a: ReportArgs) -> Result<()> {
     let s = a.scenario.load()?;
     let opts = options_with(a.vary.as_deref(), a.from, a.to, a.family.as_deref(), &a.figure)?;
-    if let Some((name, _)) = &opts.family {
-        s.params.index(name).map_err(|e| e.context(format!("--family {name}")))?;
-    }
     let files = write_report(&s, &a.out, &opts)?;
     print_listing(&files);
     Ok(())

@@ -36,12 +36,18 @@ pub fn run_statics(a: StaticsArgs) -> Result<()> {
     let s = a.scenario.load()?;
     let (lo, hi) = a.range.resolve(&s)?;
     let rep = find_static_radii(&s, lo, hi, &StaticsOptions::default())?;
-    emit(a.format, &rep, &rep.notes, ex::statics_text, ex::statics_csv);
+    emit(a.format, &rep, &rep.notes, ex::statics_text, ex::statics_csv)?;
     Ok(())
 }
 
 /// Print a report in the chosen format; notes go to stderr unless the text form already shows them.
-fn emit<R: serde::Serialize>(format: Fmt, rep: &R, notes: &[String], text: fn(&R) -> String, csv: fn(&R) -> String) {
+fn emit<R: serde::Serialize>(
+    format: Fmt,
+    rep: &R,
+    notes: &[String],
+    text: fn(&R) -> String,
+    csv: fn(&R) -> String,
+) -> Result<()> {
     if format != Fmt::Text {
         for n in notes {
             warn(n);
@@ -50,8 +56,9 @@ fn emit<R: serde::Serialize>(format: Fmt, rep: &R, notes: &[String], text: fn(&R
     match format {
         Fmt::Json => print_stdout(&to_json(rep)),
         Fmt::Text => print_stdout(&text(rep)),
-        Fmt::Csv => print_stdout(&csv(rep)),
+        Fmt::Csv => junctura::output::print_csv(&csv(rep))?,
     }
+    Ok(())
 }
 
 /// Arguments of `tune`.
@@ -63,16 +70,16 @@ pub struct TuneArgs {
     #[arg(long)]
     solve: String,
     /// Put the static shell at this radius.
-    #[arg(long, conflicts_with = "marginal")]
+    #[arg(long, allow_negative_numbers = true, conflicts_with = "marginal")]
     radius: Option<f64>,
     /// Find static AND marginally stable configurations (V = V' = V'' = 0) with the radius in --from..--to.
     #[arg(long)]
     marginal: bool,
     /// Lower end of the radius range (with --marginal).
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     from: Option<f64>,
     /// Upper end of the radius range (with --marginal).
-    #[arg(long)]
+    #[arg(long, allow_negative_numbers = true)]
     to: Option<f64>,
     /// Range LO:HI of the solved parameter to search (default: current value +- 10 max(|value|, 1)).
     #[arg(long, allow_hyphen_values = true)]
@@ -99,6 +106,7 @@ pub fn run_tune(a: TuneArgs) -> Result<()> {
         let r = a.radius.ok_or_else(|| {
             Error::input("tune needs --radius R or --marginal").with_hint("e.g. tune SCENARIO --solve w --radius 4")
         })?;
+        junctura::request::value("--radius", r)?;
         if !(r.is_finite() && r > 0.0) {
             return Err(Error::input(format!("--radius {r}: the areal radius must be a positive number")));
         }
@@ -112,7 +120,7 @@ pub fn run_tune(a: TuneArgs) -> Result<()> {
     match a.format {
         Fmt::Json => print_stdout(&ex::tune_json(&rep)),
         Fmt::Text => print_stdout(&ex::tune_text(&rep)),
-        Fmt::Csv => print_stdout(&ex::tune_csv(&rep)),
+        Fmt::Csv => junctura::output::print_csv(&ex::tune_csv(&rep))?,
     }
     Ok(())
 }
@@ -158,6 +166,6 @@ pub fn run_sweep(a: SweepArgs) -> Result<()> {
     if let Some(b) = bar {
         b.finish_and_clear();
     }
-    emit(a.format, &rep, &rep.notes, ex::sweep_text, ex::sweep_csv);
+    emit(a.format, &rep, &rep.notes, ex::sweep_text, ex::sweep_csv)?;
     Ok(())
 }

@@ -10,7 +10,11 @@ use crate::scenario::Scenario;
 pub fn text(r: &DeriveReport) -> String {
     let timelike = r.shell_kind == "timelike";
     let mut o = String::new();
-    o.push_str(&format!("scenario: {}\n# {}\n", r.scenario, r.provenance));
+    o.push_str(&format!(
+        "scenario: {}\n# {}\n",
+        crate::text::one_line(&r.scenario),
+        crate::text::one_line(&r.provenance)
+    ));
     o.push_str(&format!(
         "{} shell, D = {}, R = {}{}\n",
         r.shell_kind,
@@ -107,7 +111,7 @@ pub fn text(r: &DeriveReport) -> String {
 /// state otherwise) and the values in a small table (amsmath, booktabs).
 pub fn latex(r: &DeriveReport, s: &Scenario, layout: &LatexLayout) -> String {
     let mut o = String::new();
-    o.push_str(&format!("% {}\n% requires \\usepackage{{amsmath,booktabs}}\n", r.provenance));
+    o.push_str(&format!("% {}\n% requires \\usepackage{{amsmath,booktabs}}\n", crate::text::one_line(&r.provenance)));
     o.push_str(&format!(
         "% {} shell, D = {}; minus side: A = {}, B = {}, keep {}; plus side: A = {}, B = {}, keep {}\n",
         r.shell_kind,
@@ -183,7 +187,7 @@ pub fn csv(r: &DeriveReport) -> String {
         |f: fn(&crate::junction::EnergyConditions) -> bool| ec.as_ref().map(|e| f(e).to_string()).unwrap_or_default();
     format!(
         "# {}\nshell_kind,radius [M],velocity [1],acceleration [1/M],sigma [1/M],pressure [1/M],S_ll [1/M],S_thth [1/M],K_ss_jump [1/M],K_thth_jump [1/M],shell_mass [M],potential [1],beta2_critical [1],stable_when,null,weak,strong,dominant,flux_term [1/M^2]\n{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{}\n",
-        r.provenance,
+        crate::text::one_line(&r.provenance),
         r.shell_kind,
         num(r.radius),
         num(r.velocity),

@@ -23,8 +23,12 @@ fn opt(x: Option<f64>) -> String {
 
 /// Readable summary of an `evolve` run.
 pub fn evolve_text(r: &EvolveReport) -> String {
-    let mut o =
-        format!("scenario: {}\n# {}\nequation of state: p = {}\n", r.scenario, r.provenance, r.equation_of_state);
+    let mut o = format!(
+        "scenario: {}\n# {}\nequation of state: p = {}\n",
+        crate::text::one_line(&r.scenario),
+        crate::text::one_line(&r.provenance),
+        r.equation_of_state
+    );
     if let (Some(a0), Some(s0), Some(v2)) = (r.static_radius, r.static_sigma, r.potential_second_derivative) {
         let verdict = match r.linear_verdict {
             Some("stable") => "linearly stable",
@@ -142,7 +146,7 @@ fn sign_name(x: f64) -> &'static str {
 /// unit M, G = c = 1), one row per accepted step. The events come first, one comment line each
 /// (`# event: kind, tau, R, side, detail`); the last two columns are n^r on the minus and plus side.
 pub fn evolve_csv(r: &EvolveReport) -> String {
-    let mut o = format!("# {}\n", r.provenance);
+    let mut o = format!("# {}\n", crate::text::one_line(&r.provenance));
     o.push_str(&format!(
         "# evolve: p = {}; a0 = {}; {}; stop = {}; rtol = {:e}, atol = {:e}\n",
         r.equation_of_state,

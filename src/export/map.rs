@@ -156,7 +156,8 @@ pub fn parse_rows(text: &str, file: &str) -> Result<Vec<Cell>> {
             if s.is_empty() {
                 Ok(f64::NAN)
             } else {
-                s.parse().map_err(|_| bad())
+                // The writer never writes a non-finite number (README "Outputs"): NaN or inf means tampering.
+                s.parse::<f64>().ok().filter(|v| v.is_finite()).ok_or_else(bad)
             }
         };
         let class = CellClass::ALL.iter().copied().find(|c| c.name() == f[10]).ok_or_else(bad)?;
@@ -221,10 +222,115 @@ pub struct MapMeta {
     pub summary: Summary,
     /// The exact CSV header, so merged files match unsharded ones byte for byte.
     pub csv_header: String,
+    /// Number of data rows after the header (one per cell of the file's lines).
+    #[serde(default)]
+    pub data_rows: u64,
+    /// Hex SHA-256 of the CSV data rows (the bytes after the header), checked by `merge`.
+    #[serde(default)]
+    pub data_sha256: String,
+    /// The scenario file's text (its SHA-256 is `scenario_sha256`), so `merge` draws the figure of the whole run.
+    #[serde(default)]
+    pub scenario_text: String,
+    /// Why a whole map has no figure (too many cells), if it has none.
+    #[serde(skip_serializing_if = "Option::is_none", default)]
+    pub figure_note: Option<String>,
+}
+
+/// Row count and SHA-256 of CSV data rows, accumulated as they are written.
+#[derive(Debug, Clone, Default)]
+pub struct DataDigest {
+    rows: u64,
+    hash: sha2::Sha256,
+}
+
+impl DataDigest {
+    /// Add data rows (whole lines).
+    pub fn add(&mut self, rows: &str) {
+        use sha2::Digest;
+        self.rows += rows.bytes().filter(|&b| b == b'\n').count() as u64;
+        self.hash.update(rows.as_bytes());
+    }
+
+    /// (rows, hex SHA-256).
+    pub fn finish(self) -> (u64, String) {
+        use sha2::Digest;
+        (self.rows, format!("{:x}", self.hash.finalize()))
+    }
+}
+
+/// Check the data rows `body` of a map part against its metadata and the map: the row count and SHA-256
+/// written with the part, and the grid indices (ix, iy) of every row, which must be exactly the cells of the
+/// part's lines in order (`lines`); every number must be finite. Returns the parsed cells.
+pub fn verify_part(
+    m: &MapMeta,
+    spec: &MapSpec,
+    lines: std::ops::Range<usize>,
+    body: &str,
+    file: &str,
+) -> Result<Vec<Cell>> {
+    let hint = "run this shard again with map --shard K/N; part files must not be edited";
+    if m.data_sha256.is_empty() {
+        return Err(Error::input(format!(
+            "{file}: the part metadata has no content hash (an older junctura wrote it)"
+        ))
+        .with_hint(hint));
+    }
+    let mut d = DataDigest::default();
+    d.add(body);
+    let (rows, sha) = d.finish();
+    let expected = (lines.len() * spec.line_len()) as u64;
+    if rows != m.data_rows || rows != expected || !(body.is_empty() || body.ends_with('\n')) {
+        return Err(Error::input(format!(
+            "{file}: {rows} data rows, but the part metadata says {} and its lines {}..{} hold {expected} cells \
+             (truncated, extended or from another map)",
+            m.data_rows, lines.start, lines.end
+        ))
+        .with_hint(hint));
+    }
+    if sha != m.data_sha256 {
+        return Err(Error::input(format!(
+            "{file}: the data rows do not match the SHA-256 in the part metadata (the file was changed or swapped)"
+        ))
+        .with_hint(hint));
+    }
+    let cells = parse_rows(body, file)?;
+    if cells.len() as u64 != expected {
+        return Err(Error::input(format!("{file}: {} map rows, expected {expected}", cells.len())).with_hint(hint));
+    }
+    let mut k = 0;
+    for line in lines.clone() {
+        for j in 0..spec.line_len() {
+            let (ix, iy) = spec.cell_index(line, j);
+            let c = &cells[k];
+            if (c.ix as usize, c.iy as usize) != (ix, iy) {
+                return Err(Error::input(format!(
+                    "{file}: data row {} is cell ({}, {}), expected ({ix}, {iy}) (rows reordered or from another part)",
+                    k + 1,
+                    c.ix,
+                    c.iy
+                ))
+                .with_hint(hint));
+            }
+            k += 1;
+        }
+    }
+    Ok(cells)
 }
 
 /// Build the metadata.
 pub fn meta(s: &Scenario, spec: &MapSpec, summary: Summary, shard: Option<(usize, usize)>) -> MapMeta {
+    meta_with_data(s, spec, summary, shard, DataDigest::default())
+}
+
+/// The metadata of a map whose CSV data rows went through `data` (row count and SHA-256, checked by `merge`).
+pub fn meta_with_data(
+    s: &Scenario,
+    spec: &MapSpec,
+    summary: Summary,
+    shard: Option<(usize, usize)>,
+    data: DataDigest,
+) -> MapMeta {
+    let (data_rows, data_sha256) = data.finish();
     MapMeta {
         version: env!("CARGO_PKG_VERSION").to_string(),
         scenario: s.name.clone(),
@@ -236,5 +342,9 @@ pub fn meta(s: &Scenario, spec: &MapSpec, summary: Summary, shard: Option<(usize
         shard,
         summary,
         csv_header: csv_header(s, spec),
+        data_rows,
+        data_sha256,
+        scenario_text: s.origin.text.clone(),
+        figure_note: None,
     }
 }

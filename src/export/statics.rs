@@ -9,8 +9,8 @@ use crate::statics::StaticsReport;
 pub fn statics_text(r: &StaticsReport) -> String {
     let mut o = format!(
         "scenario: {}\n# {}\nequation of state: p = {}\nradius range {} .. {}\n",
-        r.scenario,
-        r.provenance,
+        crate::text::one_line(&r.scenario),
+        crate::text::one_line(&r.provenance),
         r.equation_of_state,
         num(r.from),
         num(r.to)
@@ -57,7 +57,8 @@ pub fn statics_text(r: &StaticsReport) -> String {
 
 /// CSV of static radii (provenance comment, header with units, one row per radius).
 pub fn statics_csv(r: &StaticsReport) -> String {
-    let mut o = format!("# {}\n# equation of state: p = {}\n", r.provenance, r.equation_of_state);
+    let mut o =
+        format!("# {}\n# equation of state: p = {}\n", crate::text::one_line(&r.provenance), r.equation_of_state);
     for n in &r.neutral_intervals {
         o.push_str(&format!("# every radius in [{}, {}] is static (neutral)\n", num(n.from), num(n.to)));
     }
@@ -108,7 +109,7 @@ pub fn tune_json(r: &TuneReport) -> String {
         })
         .collect();
     let v = serde_json::json!({
-        "scenario": r.scenario,
+        "scenario": crate::text::one_line(&r.scenario),
         "provenance": r.provenance,
         "parameter": r.parameter,
         "searched": r.searched,
@@ -122,8 +123,8 @@ pub fn tune_json(r: &TuneReport) -> String {
 pub fn tune_text(r: &TuneReport) -> String {
     let mut o = format!(
         "scenario: {}\n# {}\nsolving for {} in [{}, {}]\n",
-        r.scenario,
-        r.provenance,
+        crate::text::one_line(&r.scenario),
+        crate::text::one_line(&r.provenance),
         r.parameter,
         num(r.searched[0]),
         num(r.searched[1])
@@ -152,8 +153,8 @@ pub fn tune_text(r: &TuneReport) -> String {
 pub fn sweep_text(r: &SweepReport) -> String {
     let mut o = format!(
         "scenario: {}\n# {}\nvarying {} over {} values; radius range {} .. {}\n",
-        r.scenario,
-        r.provenance,
+        crate::text::one_line(&r.scenario),
+        crate::text::one_line(&r.provenance),
         r.parameter,
         r.values.len(),
         num(r.radius_range[0]),
@@ -186,7 +187,7 @@ pub fn sweep_text(r: &SweepReport) -> String {
 
 /// CSV of a sweep: one row per branch point.
 pub fn sweep_csv(r: &SweepReport) -> String {
-    let mut o = format!("# {}\n", r.provenance);
+    let mut o = format!("# {}\n", crate::text::one_line(&r.provenance));
     o.push_str(&format!("branch,{} [param],radius [M],potential_second_derivative [1/M^2],stability\n", r.parameter));
     for b in &r.branches {
         for p in &b.points {
@@ -208,7 +209,8 @@ pub fn statics_latex(r: &StaticsReport) -> String {
     use super::latex_num;
     let mut o = format!(
         "% {}\n% equation of state: p = {}\n% requires \\usepackage{{booktabs}}\n",
-        r.provenance, r.equation_of_state
+        crate::text::one_line(&r.provenance),
+        r.equation_of_state
     );
     o.push_str("\\begin{tabular}{rrrrrl}\n\\toprule\n$a_0/M$ & $\\sigma_0 M$ & $p_0 M$ & $\\beta^{2}$ & $V''(a_0) M^{2}$ & stability \\\\\n\\midrule\n");
     for s in &r.static_radii {
@@ -238,7 +240,7 @@ pub fn statics_latex(r: &StaticsReport) -> String {
 
 /// CSV of tuned configurations (one row per solution).
 pub fn tune_csv(r: &TuneReport) -> String {
-    let mut o = format!("# {}\nradius [M],{} [param],potential_second_derivative [1/M^2],stability,sigma [1/M],pressure [1/M],residual [1/M],d_radius_d_parameter [M/param]\n", r.provenance, r.parameter);
+    let mut o = format!("# {}\nradius [M],{} [param],potential_second_derivative [1/M^2],stability,sigma [1/M],pressure [1/M],residual [1/M],d_radius_d_parameter [M/param]\n", crate::text::one_line(&r.provenance), r.parameter);
     for s in &r.solutions {
         o.push_str(&format!(
             "{},{},{},{},{},{},{},{}\n",

@@ -147,6 +147,47 @@ pub struct Parser<'a> {
 /// exhaust the stack in the recursive descent, in evaluation and when the tree is dropped).
 pub const MAX_DEPTH: usize = 200;
 
+/// Chains of + - (or * /) up to this many terms are built left-leaning (as written); longer ones balanced.
+const LEAN_CHAIN: usize = 16;
+
+/// The tree of a chain of terms `(inverse, node)` of one precedence level (the first term is direct): up to
+/// [`LEAN_CHAIN`] terms the usual left-leaning tree, as written; a longer chain a balanced tree of the same value
+/// (terms regrouped, signs kept: a - b - c - d = (a - b) - (c + d)), so its depth grows with log2 of its length
+/// and flat sums of any length are accepted.
+#[inline(never)]
+fn finish_chain(terms: Vec<(bool, Node)>, direct: BinOp, inverse: BinOp) -> Node {
+    if terms.len() > LEAN_CHAIN {
+        return balanced(terms, direct, inverse);
+    }
+    let mut it = terms.into_iter();
+    let mut lhs = match it.next() {
+        Some((_, n)) => n,
+        None => return Node::Num(0.0),
+    };
+    for (inv, rhs) in it {
+        lhs = Node::bin(if inv { inverse } else { direct }, lhs, rhs);
+    }
+    lhs
+}
+
+/// A balanced tree over signed terms `(inverse, node)`; the first term's sign must be direct.
+fn balanced(mut terms: Vec<(bool, Node)>, direct: BinOp, inverse: BinOp) -> Node {
+    if terms.len() == 1 {
+        return terms.pop().map(|t| t.1).unwrap_or(Node::Num(0.0));
+    }
+    let mut right = terms.split_off(terms.len() / 2);
+    let left = balanced(terms, direct, inverse);
+    // x - r1 + r2 ... = x - (r1 - r2 ...): flip the signs of the right half when it starts with an inverse.
+    let flip = right[0].0;
+    if flip {
+        for t in right.iter_mut() {
+            t.0 = !t.0;
+        }
+    }
+    let r = balanced(right, direct, inverse);
+    Node::bin(if flip { inverse } else { direct }, left, r)
+}
+
 impl<'a> Parser<'a> {
     /// Parse `src` as a function of `var` with the parameters `params` (by name; `Node::Param(k)` refers to
     /// `params[k]`).
@@ -187,44 +228,45 @@ impl<'a> Parser<'a> {
         ParseError { message, column: self.col(), source: self.src.to_string(), hint: None }
     }
 
+    /// A chain `t0 ± t1 ± t2 ...`: see [`finish_chain`] for how it becomes a tree. Each further term is counted
+    /// as a nesting level up to [`LEAN_CHAIN`] (the depth of the tree it can add).
     fn sum(&mut self) -> Result<Node, ParseError> {
-        // Each further term deepens the left-leaning tree by one level: count it like a nesting level.
         let base = self.depth;
-        let mut lhs = self.product()?;
+        let mut terms = vec![(false, self.product()?)];
         loop {
-            let op = match self.peek() {
-                Tok::Op('+') => BinOp::Add,
-                Tok::Op('-') => BinOp::Sub,
-                _ => {
-                    self.depth = base;
-                    return Ok(lhs);
-                }
+            let inverse = match self.peek() {
+                Tok::Op('+') => false,
+                Tok::Op('-') => true,
+                _ => break,
             };
             self.bump();
-            self.depth += 1;
-            let rhs = self.product()?;
-            lhs = Node::bin(op, lhs, rhs);
+            self.depth = base + terms.len().min(LEAN_CHAIN);
+            let rhs = self.product();
+            self.depth = base;
+            terms.push((inverse, rhs?));
         }
+        self.depth = base;
+        Ok(finish_chain(terms, BinOp::Add, BinOp::Sub))
     }
 
+    /// A chain `t0 * t1 / t2 ...`, as [`Parser::sum`].
     fn product(&mut self) -> Result<Node, ParseError> {
-        // Each further term deepens the left-leaning tree by one level: count it like a nesting level.
         let base = self.depth;
-        let mut lhs = self.unary()?;
+        let mut terms = vec![(false, self.unary()?)];
         loop {
-            let op = match self.peek() {
-                Tok::Op('*') => BinOp::Mul,
-                Tok::Op('/') => BinOp::Div,
-                _ => {
-                    self.depth = base;
-                    return Ok(lhs);
-                }
+            let inverse = match self.peek() {
+                Tok::Op('*') => false,
+                Tok::Op('/') => true,
+                _ => break,
             };
             self.bump();
-            self.depth += 1;
-            let rhs = self.unary()?;
-            lhs = Node::bin(op, lhs, rhs);
+            self.depth = base + terms.len().min(LEAN_CHAIN);
+            let rhs = self.unary();
+            self.depth = base;
+            terms.push((inverse, rhs?));
         }
+        self.depth = base;
+        Ok(finish_chain(terms, BinOp::Mul, BinOp::Div))
     }
 
     /// Every nesting level (parentheses, calls, signs, exponents) passes through here, so the depth is
@@ -354,9 +396,18 @@ impl<'a> Parser<'a> {
     }
 }
 
-/// The closest of `candidates` to `name` by Jaro-Winkler similarity, if it is close enough to suggest.
+/// Longest name (in bytes) for which a suggestion is searched: the similarity costs length x length, and a
+/// name this long is no typo of a short one.
+pub const MAX_SUGGEST_LEN: usize = 64;
+
+/// The closest of `candidates` to `name` by Jaro-Winkler similarity, if it is close enough to suggest. Names or
+/// candidates longer than [`MAX_SUGGEST_LEN`] are not compared.
 pub fn closest<'c>(name: &str, candidates: impl Iterator<Item = &'c str>) -> Option<&'c str> {
+    if name.len() > MAX_SUGGEST_LEN {
+        return None;
+    }
     candidates
+        .filter(|c| c.len() <= MAX_SUGGEST_LEN)
         .map(|c| (strsim::jaro_winkler(name, c), c))
         .filter(|(s, _)| *s > 0.75)
         .max_by(|a, b| a.0.total_cmp(&b.0))
@@ -424,5 +475,28 @@ mod tests {
         assert!(e.hint.as_deref().unwrap().contains("known parameters: m, q, e"), "{e}");
         let e = p("sqr(r)").unwrap_err();
         assert!(e.hint.as_deref().unwrap().contains("'sqrt'"), "{e}");
+    }
+
+    #[test]
+    fn flat_chains_of_any_length_are_not_too_deep() {
+        // common practice: a flat sum is not nested; its value is the plain sum (integers, so exact).
+        let terms: Vec<String> =
+            (1..=500).map(|k| if k % 3 == 0 { format!("- {k}*r") } else { format!("+ {k}*r") }).collect();
+        let src = format!("0 {}", terms.join(" "));
+        let n = p(&src).expect("500 terms are a flat sum");
+        let expected: f64 = (1..=500).map(|k| if k % 3 == 0 { -(k as f64) } else { k as f64 }).sum();
+        assert_eq!(crate::expr::eval::eval_node(&n, 1.0f64, |_| 0.0), expected);
+        let prod =
+            format!("r {}", (0..300).map(|k| if k % 2 == 0 { "* 2" } else { "/ 2" }).collect::<Vec<_>>().join(" "));
+        assert_eq!(crate::expr::eval::eval_node(&p(&prod).unwrap(), 3.0f64, |_| 0.0), 3.0);
+        let mixed = format!("1 {}", (0..40).map(|k| if k < 20 { "- 1" } else { "+ 2" }).collect::<Vec<_>>().join(" "));
+        assert_eq!(crate::expr::eval::eval_node(&p(&mixed).unwrap(), 0.0f64, |_| 0.0), 1.0 - 20.0 + 40.0);
+        // Short chains keep the tree as written.
+        assert_eq!(
+            p("r - 1 - 2").unwrap(),
+            Node::bin(BinOp::Sub, Node::bin(BinOp::Sub, Node::Var, Node::Num(1.0)), Node::Num(2.0))
+        );
+        // Nesting is still limited.
+        assert!(p(&format!("{}r{}", "(".repeat(300), ")".repeat(300))).is_err());
     }
 }

@@ -111,8 +111,7 @@ impl Stage {
 impl Chain {
     /// Read and validate a chain file (scenario paths are relative to its folder).
     pub fn load(path: &Path) -> Result<Chain> {
-        let text = std::fs::read_to_string(path)
-            .map_err(|e| Error::io(path, &e).with_hint("check the path of the chain file"))?;
+        let text = crate::input::read_text(path, "chain file", crate::input::MAX_TEXT_FILE)?;
         Chain::parse(&text, Some(path))
     }
 
@@ -128,6 +127,14 @@ impl Chain {
         if !(raw.particle.energy.is_finite() && raw.particle.energy > 0.0) {
             return Err(Error::input(format!("{file}: [particle] energy = {} must be positive", raw.particle.energy))
                 .with_hint("E = -u_t per unit mass; E < 1 gives bounded orbits in an asymptotically flat exterior"));
+        }
+        if let Some((_, c)) = crate::text::unsafe_char(&raw.name) {
+            let at = text.find("name").map(|o| line_col(text, o)).map(|(l, c)| format!(":{l}:{c}")).unwrap_or_default();
+            return Err(Error::input(format!(
+                "{file}{at}: name contains the control character {} (a line break, tab or terminal code)",
+                crate::text::one_line(&c.to_string())
+            ))
+            .with_hint("write the name on one line of plain text; it is copied into every output file"));
         }
         if raw.stage.is_empty() {
             return Err(Error::input(format!("{file}: no [[stage]] given")).with_hint(hint));
@@ -217,9 +224,10 @@ impl Chain {
         let label = self.path.as_ref().map(|p| p.display().to_string()).unwrap_or_else(|| "<chain>".into());
         let mult = self.multiply.iter().map(|(n, f)| format!("{n}*={f}")).collect::<Vec<_>>().join(", ");
         format!(
-            "junctura {} | chain \"{}\" ({label}) sha256:{} | E0={} | per pass: {}",
+            "junctura {} | chain \"{}\" ({}) sha256:{} | E0={} | per pass: {}",
             env!("CARGO_PKG_VERSION"),
-            self.name,
+            crate::text::one_line(&self.name),
+            crate::text::one_line(&label),
             &self.hash[..16],
             self.energy,
             if mult.is_empty() { "none".into() } else { mult }

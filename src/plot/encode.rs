@@ -333,12 +333,14 @@ pub(crate) fn pdf_from_svg(svg: &str, provenance: &str, title: Option<&str>) -> 
         doc.title(TextStr(t));
     }
     doc.finish();
-    Ok(pdf.finish())
+    // The converter's hash maps order fonts and resources differently in each run: write one canonical form.
+    Ok(super::pdf_canon::canonical(&pdf.finish()))
 }
 
-/// Escape text for XML character data and attribute values.
+/// Escape text for XML character data and attribute values (control characters, which XML 1.0 does not allow,
+/// are written as visible escapes by [`crate::text::one_line`]).
 fn xml_escape(s: &str) -> String {
-    s.replace('&', "&amp;").replace('<', "&lt;").replace('>', "&gt;").replace('"', "&quot;")
+    crate::text::one_line(s).replace('&', "&amp;").replace('<', "&lt;").replace('>', "&gt;").replace('"', "&quot;")
 }
 
 /// Standard base64 (RFC 4648 section 4, with padding).

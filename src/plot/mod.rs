@@ -36,6 +36,7 @@
 
 mod encode;
 mod geom;
+mod pdf_canon;
 mod scene;
 mod style;
 mod text;

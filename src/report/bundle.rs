@@ -80,8 +80,41 @@ impl Listing {
     }
 }
 
+/// Check every option against the scenario before the first file is written, so a bad request leaves no
+/// partial report behind.
+pub fn check_options(s: &Scenario, opts: &ReportOptions) -> Result<()> {
+    let spacelike = |opt: &str, name: &str| {
+        Error::input(format!("{opt} {name}: reports of spacelike shells have no families or sweeps"))
+            .with_hint(format!("leave out {opt}"))
+    };
+    if let Some((name, _)) = &opts.family {
+        s.params.index(name).map_err(|e| e.context(format!("--family {name}")))?;
+        if s.shell.kind == ShellKind::Spacelike {
+            return Err(spacelike("--family", name));
+        }
+    }
+    if let Some((name, _, _, n)) = &opts.vary {
+        s.params.index(name).map_err(|e| e.context(format!("--vary {name}")))?;
+        if s.shell.kind == ShellKind::Spacelike {
+            return Err(spacelike("--vary", name));
+        }
+        if s.shell.eos.is_none() {
+            return Err(Error::input(format!(
+                "--vary {name}: the sweep of static radii needs an equation of state, and the scenario has none"
+            ))
+            .with_hint("add [shell] pressure = \"...\" to the scenario, or leave out --vary"));
+        }
+        if *n > 100_000 {
+            return Err(Error::input(format!("--vary {name}: N = {n} values is more than a sweep needs"))
+                .with_hint("use at most 100000 values"));
+        }
+    }
+    Ok(())
+}
+
 /// Write the report for `s` into `dir`; returns the files written with a one-line description each.
 pub fn write_report(s: &Scenario, dir: &Path, opts: &ReportOptions) -> Result<Vec<(PathBuf, String)>> {
+    check_options(s, opts)?;
     ensure_dir(dir)?;
     let mut out = Listing { dir: dir.to_path_buf(), files: Vec::new(), figure: opts.figure.clone(), notes: Vec::new() };
     let prov = s.provenance();
@@ -105,7 +138,7 @@ pub fn write_report(s: &Scenario, dir: &Path, opts: &ReportOptions) -> Result<Ve
         ShellKind::Timelike => timelike_part(s, opts, &mut out)?,
     }
     // summary.md names every file.
-    let mut md = format!("# junctura report: {}\n\n`{}`\n\n", s.name, prov);
+    let mut md = format!("# junctura report: {}\n\n`{}`\n\n", crate::text::one_line(&s.name), prov.replace('`', "'"));
     for n in &out.notes {
         md.push_str(&format!("**Note:** {n}\n\n"));
     }

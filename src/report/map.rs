@@ -3,7 +3,7 @@
 //! [`crate::scan::evaluate_lines`]; this module only orders, counts and writes them.
 
 use crate::error::{Error, Result};
-use crate::export::map::{csv_header, csv_rows, meta};
+use crate::export::map::{csv_header, csv_rows};
 use crate::metric::default_range;
 use crate::output::{write_atomic, AtomicFile};
 use crate::request::{parse_axis, range};
@@ -125,6 +125,7 @@ pub fn write_map(
     csv.write(csv_header(s, spec).as_bytes())?;
     let total = lines.len();
     let mut summary = Summary::default();
+    let mut digest = crate::export::map::DataDigest::default();
     let mut classes: Vec<Cell> = Vec::new();
     let keep_cells = shard.is_none() && (spec.x.n as u64) * (spec.y.n as u64) <= MAX_KEPT_CELLS;
     // Lines per block: about 1% of the map, but never more than ~1e6 cells held at once.
@@ -144,32 +145,55 @@ pub fn write_map(
             }
         }
         csv.write(text.as_bytes())?;
+        digest.add(&text);
         progress(end - lines.start, total);
         start = end;
     }
     csv.finish()?;
-    let m = meta(s, spec, summary, shard);
+    let mut m = crate::export::map::meta_with_data(s, spec, summary, shard, digest);
+    if shard.is_none() && !keep_cells {
+        let note = no_figure_note(spec);
+        crate::output::warn(&note);
+        m.figure_note = Some(note);
+    }
     let json_path = dir.join(format!("{stem}.json"));
     let json = serde_json::to_string_pretty(&m).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"));
     write_atomic(&json_path, json.as_bytes())?;
     let mut written = vec![csv_path, json_path];
     if keep_cells {
-        let (lo, hi) = match (spec.x.kind, spec.y.kind) {
-            (crate::scan::AxisKind::Radius, _) => (spec.x.lo, spec.x.hi),
-            _ => spec.radius_range,
-        };
-        let ov = super::figures::overlays(s, lo, hi);
-        let mut fig = super::figures::map_figure_with(
-            crate::export::map::map_provenance(s, spec),
-            spec,
-            &classes,
-            Some(&ov),
-            &s.symbols,
-        );
-        fig_opts.apply(&mut fig, crate::plot::StyleName::Classic);
+        let fig = map_file_figure(s, spec, &classes, crate::export::map::map_provenance(s, spec), fig_opts);
         written.extend(crate::plot::write_figure(&fig, dir, "map")?);
     }
     Ok(written)
+}
+
+/// The note written (stderr and `figure_note` in map.json) when a map is too large for its figure.
+pub fn no_figure_note(spec: &MapSpec) -> String {
+    format!(
+        "{} x {} = {} cells: more than {MAX_KEPT_CELLS}, so no figure was drawn (map.csv and map.json are complete)",
+        spec.x.n,
+        spec.y.n,
+        spec.x.n as u64 * spec.y.n as u64
+    )
+}
+
+/// The figure of a map written to files (`map` and `merge` draw the same one): classes, the horizon and
+/// photon-orbit overlays of the radius range, the scenario's symbols, the figure options.
+pub fn map_file_figure(
+    s: &Scenario,
+    spec: &MapSpec,
+    cells: &[Cell],
+    provenance: String,
+    fig_opts: &crate::plot::FigureOptions,
+) -> crate::plot::Figure {
+    let (lo, hi) = match (spec.x.kind, spec.y.kind) {
+        (crate::scan::AxisKind::Radius, _) => (spec.x.lo, spec.x.hi),
+        _ => spec.radius_range,
+    };
+    let ov = super::figures::overlays(s, lo, hi);
+    let mut fig = super::figures::map_figure_with(provenance, spec, cells, Some(&ov), &s.symbols);
+    fig_opts.apply(&mut fig, crate::plot::StyleName::Classic);
+    fig
 }
 
 #[cfg(test)]

@@ -199,6 +199,7 @@ impl Params {
         if !value.is_finite() {
             return Err(Error::input(format!("parameter '{name}' = {value} is not a finite number")));
         }
+        check_magnitude(name, value)?;
         self.values[k] = value;
         Ok(())
     }
@@ -262,15 +263,31 @@ pub struct Scenario {
     pub origin: Origin,
 }
 
+/// Largest |parameter| accepted: radii up to 1e3 times it (the default range) and the junction quantities
+/// (powers of M/r, 1/M^2 in the stability test) stay inside f64 without overflow or underflow.
+pub const MAX_PARAMETER: f64 = 1e50;
+
+/// Smallest non-zero |parameter| accepted (the mirror of [`MAX_PARAMETER`]).
+pub const MIN_PARAMETER: f64 = 1e-50;
+
+/// A parameter value inside [`MIN_PARAMETER`] ..= [`MAX_PARAMETER`] in magnitude (or zero); the error names it.
+fn check_magnitude(name: &str, x: f64) -> Result<()> {
+    if x.abs() > MAX_PARAMETER || (x != 0.0 && x.abs() < MIN_PARAMETER) {
+        return Err(Error::input(format!(
+            "parameter '{name}' = {x:e} is outside the supported magnitudes {MIN_PARAMETER:e} ..= {MAX_PARAMETER:e}"
+        ))
+        .with_hint("results scale with the length unit: measure lengths in units of a mass or radius of the problem (e.g. m = 1)"));
+    }
+    Ok(())
+}
+
 /// Names that cannot be parameters.
 const RESERVED: [&str; 3] = ["r", "sigma", "pi"];
 
 impl Scenario {
     /// Read and validate a scenario file.
     pub fn load(path: &Path) -> Result<Scenario> {
-        let text = std::fs::read_to_string(path).map_err(|e| {
-            Error::io(path, &e).with_hint("check the path; scenarios are TOML files such as scenarios/demo.toml")
-        })?;
+        let text = crate::input::read_text(path, "scenario file", crate::input::MAX_TEXT_FILE)?;
         Scenario::parse(&text, Some(path.to_path_buf()))
     }
 
@@ -337,6 +354,7 @@ impl Scenario {
             if !x.is_finite() {
                 return Err(Error::input(format!("{loc}: parameter '{k}' = {x} is not a finite number")));
             }
+            check_magnitude(k, x).map_err(|e| e.context(&loc))?;
             names.push(k.clone());
             values.push(x);
         }
@@ -449,7 +467,14 @@ impl Scenario {
                 );
             }
             match v {
-                toml::Value::String(s) if !s.trim().is_empty() => symbols.push((k.clone(), s.trim().to_string())),
+                toml::Value::String(s) if !s.trim().is_empty() => {
+                    if let Some(why) = crate::text::tex_symbol_problem(s) {
+                        return Err(Error::input(format!("{loc}: [symbols] {k} {why}")).with_hint(format!(
+                            "a symbol is LaTeX math, e.g. {k} = '\\lambda' or '\\mathcal{{Q}}_{{2}}'"
+                        )));
+                    }
+                    symbols.push((k.clone(), s.trim().to_string()))
+                }
                 other => {
                     return Err(Error::input(format!(
                         "{loc}: [symbols] {k} must be a non-empty string (a LaTeX symbol), found {}",
@@ -460,7 +485,16 @@ impl Scenario {
             }
         }
         let symbols = Symbols::new(symbols);
+        let name_start = raw.name.span().start;
         let name = raw.name.into_inner();
+        if let Some((_, c)) = crate::text::unsafe_char(&name) {
+            return Err(Error::input(format!(
+                "{}: name contains the control character {} (a line break, tab or terminal code)",
+                at(name_start),
+                crate::text::one_line(&c.to_string())
+            ))
+            .with_hint("write the name on one line of plain text; it is copied into every output file"));
+        }
         Ok(Scenario { name, dimension, params, minus, plus, shell: Shell { kind: shell_kind, eos }, symbols, origin })
     }
 
@@ -491,8 +525,8 @@ impl Scenario {
         format!(
             "junctura {} | scenario \"{}\" ({}) sha256:{} | D={} | {}",
             env!("CARGO_PKG_VERSION"),
-            self.name,
-            self.origin.label(),
+            crate::text::one_line(&self.name),
+            crate::text::one_line(&self.origin.label()),
             self.origin.short_hash(),
             self.dimension,
             self.params.describe()

@@ -58,6 +58,21 @@ fn catalogue() -> Vec<Case> {
     let base = || Some(BASE.to_string());
     let derive4 = &["derive", "{S}", "--radius", "4"][..];
     vec![
+        // Orientation and signature (one admissibility rule for every command).
+        case(
+            "normal_sign_contradicting_keep",
+            Some(edit("keep = \"outer\"\n[shell]", "keep = \"outer\"\nnormal_sign = -1\n[shell]")),
+            derive4,
+            2,
+            &["{S}:11:15", "normal_sign = -1 contradicts keep = \"outer\"", "remove normal_sign"],
+        ),
+        case(
+            "statics_on_a_signature_changing_side",
+            Some(edit("[minus]\nA = \"1 - 2*m/r\"", "[minus]\nA = \"-(1 - 2*m/r)\"\nB = \"1 - 2*m/r\"")),
+            &["statics", "{S}"],
+            3,
+            &["minus side", "changes signature", "zeros should coincide"],
+        ),
         // Scenario files.
         case(
             "symbol_for_unknown_parameter",

@@ -3,7 +3,7 @@
 
 use super::dopri::Vec3;
 use crate::junction::potential::potential_from_y;
-use crate::junction::{phi_prime, Junction, HORIZON_TOL};
+use crate::junction::{admissible, phi_prime, Junction, HORIZON_TOL};
 use crate::scenario::Which;
 use num_dual::Dual64;
 
@@ -120,7 +120,7 @@ impl<'j, 'a> Motion<'j, 'a> {
             if !(jet.b[0].is_finite() && jet.a[0].is_finite() && jet.b[1].is_finite() && jet.a[1].is_finite()) {
                 return Err(Halt::NonFinite);
             }
-            if jet.b[0] * jet.a[0] < 0.0 {
+            if admissible::signature(w, jet.a[0], jet.b[0], jet.b[1]).is_err() {
                 return Err(Halt::Signature(w));
             }
         }
@@ -161,7 +161,7 @@ impl<'j, 'a> Motion<'j, 'a> {
     pub fn near_horizon(&self, r: f64, tol: f64) -> Option<Which> {
         [Which::Minus, Which::Plus].into_iter().find(|&w| {
             let jet = self.j.jet(w, r);
-            jet.b[0].abs() <= tol.max(HORIZON_TOL) * (1.0 + r * jet.b[1].abs())
+            admissible::near_horizon(r, jet.b[0], jet.b[1], tol.max(HORIZON_TOL))
         })
     }
 }

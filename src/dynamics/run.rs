@@ -8,7 +8,7 @@ use super::motion::Motion;
 use crate::error::{Error, Result};
 use crate::junction::potential::Law;
 use crate::junction::stability::{marginal_scale, MARGINAL_TOL};
-use crate::junction::Junction;
+use crate::junction::{admissible, Junction};
 use crate::metric::RegionKind;
 use crate::scenario::Which;
 use crate::scenario::{Scenario, ShellKind};
@@ -319,7 +319,7 @@ pub fn initial_from_data(s: &Scenario, j: &Junction<f64>, r: f64, start: Start) 
     let jets = [j.jet(Which::Minus, r), j.jet(Which::Plus, r)];
     for (w, jet) in [Which::Minus, Which::Plus].into_iter().zip(&jets) {
         j.check_finite_jet(w, r, jet, 1).map_err(|e| e.context(format!("--radius {r}")))?;
-        if jet.b[0].abs() <= crate::junction::HORIZON_TOL * (1.0 + r * jet.b[1].abs()) {
+        if admissible::near_horizon(r, jet.b[0], jet.b[1], crate::junction::HORIZON_TOL) {
             return Err(Error::input(format!(
                 "--radius {r} is on (or numerically within {:.0e} of) a horizon of the {w} side: B = {:e}",
                 crate::junction::HORIZON_TOL,
@@ -327,12 +327,8 @@ pub fn initial_from_data(s: &Scenario, j: &Junction<f64>, r: f64, start: Start) 
             ))
             .with_hint("start slightly off the horizon; the motion itself crosses horizons"));
         }
-        if jet.a[0] * jet.b[0] < 0.0 {
-            return Err(Error::input(format!(
-                "--radius {r}: on the {w} side A = {:.6e} and B = {:.6e} have opposite signs",
-                jet.a[0], jet.b[0]
-            ))
-            .with_hint("check A and B: their zeros should coincide"));
+        if let Err(why) = admissible::signature(w, jet.a[0], jet.b[0], jet.b[1]) {
+            return Err(Error::input(format!("--radius {r}: {why}")).with_hint(why.hint()));
         }
     }
     let side = |w: Which| s.side(w);

@@ -17,6 +17,7 @@
 //! derivative with respect to a parameter is wanted); radial derivatives of A and B come from third-order dual
 //! numbers, exact to rounding.
 
+pub mod admissible;
 pub mod closed;
 pub mod conditions;
 pub mod formula;
@@ -169,57 +170,24 @@ impl<'a, T: Scalar> Junction<'a, T> {
     /// timelike shell, B < 0 for a spacelike one), not numerically at a horizon, and each R-region `keep`
     /// consistent with B > 0 there.
     pub fn check_static_radius(&self, a: f64, jm: &Jet<T>, jp: &Jet<T>) -> Result<()> {
-        for (which, jet, keep) in [(Which::Minus, jm, self.keep_minus), (Which::Plus, jp, self.keep_plus)] {
+        for (which, jet) in [(Which::Minus, jm), (Which::Plus, jp)] {
             self.check_finite_jet(which, a, jet, 2)?;
-            let b = jet.b[0].re();
-            let a_val = jet.a[0].re();
-            let scale = 1.0 + a * jet.b[1].re().abs();
-            if b.abs() <= HORIZON_TOL * scale {
-                return Err(Error::numerical(format!(
-                    "radius {a} is at (or numerically within {:.0e} of) a horizon of the {which} side: B = {b:e}",
-                    HORIZON_TOL
-                ))
-                .with_hint("the junction formulas divide by sqrt(B) and fail on a horizon (a shell there is a null shell, outside this tool's scope); move the radius off the horizon"));
-            }
-            let r_region = b > 0.0;
-            match (self.kind, r_region) {
-                (ShellKind::Timelike, false) => {
-                    return Err(Error::numerical(format!(
-                        "radius {a}: the {which} side has B = {b:.6e} < 0 here (a T-region), so r = const is spacelike: no static timelike shell can sit here"
-                    ))
-                    .with_hint("choose a radius outside the horizons (see `junctura check`), or make the shell spacelike with [shell] kind = \"spacelike\""));
-                }
-                (ShellKind::Spacelike, true) => {
-                    return Err(Error::numerical(format!(
-                        "radius {a}: the {which} side has B = {b:.6e} > 0 here (an R-region), so r = const is timelike: no static spacelike shell can sit here"
-                    ))
-                    .with_hint("a static spacelike shell sits inside a horizon (T-region); choose a radius where B < 0"));
-                }
-                _ => {}
-            }
-            if !keep.is_r_region() && r_region {
-                return Err(Error::input(format!(
-                    "radius {a}: the {which} side keeps \"{}\" (a T-region) but B > 0 there (an R-region)",
-                    keep.name()
-                ))
-                .with_hint("use keep = \"inner\" or \"outer\" for a side whose shell radius is outside its horizons"));
-            }
-            if keep.is_r_region() && !r_region {
-                return Err(Error::input(format!(
-                    "radius {a}: the {which} side keeps \"{}\" (an R-region) but B < 0 there (a T-region)",
-                    keep.name()
-                ))
-                .with_hint("inside a horizon use keep = \"black-hole\" or \"white-hole\""));
-            }
-            if a_val * b < 0.0 {
-                return Err(Error::numerical(format!(
-                    "radius {a}: on the {which} side A = {a_val:.6e} and B = {b:.6e} have opposite signs; the metric changes signature there"
-                ))
-                .with_hint("check A and B: their zeros should coincide"));
-            }
         }
-        Ok(())
+        let re = |j: &Jet<T>| Jet { a: j.a.map(|x| x.re()), b: j.b.map(|x| x.re()) };
+        admissible::static_site(self.kind, [self.keep_minus, self.keep_plus], a, [&re(jm), &re(jp)])
+            .map_err(|why| admissible_error(a, why))
     }
+}
+
+/// The error for a radius the admissibility rule refuses: a contradiction with `keep` is bad input (exit 2),
+/// the rest are numerical (exit 3).
+pub fn admissible_error(a: f64, why: admissible::Inadmissible) -> Error {
+    let msg = format!("radius {a}: {why}");
+    let e = match why {
+        admissible::Inadmissible::KeepContradicts { .. } => Error::input(msg),
+        _ => Error::numerical(msg),
+    };
+    e.with_hint(why.hint())
 }
 
 /// Area of the unit n-sphere, Omega_n = 2 pi^((n+1)/2) / Gamma((n+1)/2) (common practice), by the recursion

@@ -144,8 +144,14 @@ impl<'a> Junction<'a, f64> {
         let rhs = |r: f64, y: f64| -> Option<f64> {
             let jm = self.jet(Which::Minus, r);
             let jp = self.jet(Which::Plus, r);
-            let outside = |j: &super::Jet<f64>| if through_horizons { j.a[0] * j.b[0] < 0.0 } else { j.b[0] <= 0.0 };
-            if outside(&jm) || outside(&jp) {
+            let outside = |w: Which, j: &super::Jet<f64>| {
+                if through_horizons {
+                    super::admissible::signature(w, j.a[0], j.b[0], j.b[1]).is_err()
+                } else {
+                    j.b[0] <= 0.0
+                }
+            };
+            if outside(Which::Minus, &jm) || outside(Which::Plus, &jp) {
                 return None;
             }
             let phi = super::phi_prime;

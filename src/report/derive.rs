@@ -175,7 +175,7 @@ pub fn derive(s: &Scenario, state: State) -> Result<DeriveReport> {
     };
     for (i, name) in [(0, "minus"), (1, "plus")] {
         let b = jets[i].b[0];
-        if b.abs() <= NEAR_HORIZON_WARN * (1.0 + r * jets[i].b[1].abs()) {
+        if crate::junction::admissible::near_horizon(r, b, jets[i].b[1], NEAR_HORIZON_WARN) {
             warnings.push(format!(
                 "the radius is within a relative {NEAR_HORIZON_WARN:.0e} of a horizon of the {name} side (B = {b:.3e}): the junction quantities grow like 1/sqrt(B) and are ill-conditioned here"
             ));

@@ -3,7 +3,7 @@
 use super::fast::{static_coefficients, FastJunction, LineScratch, StaticCoefficients};
 use super::grid::{AxisKind, Beta2Source, MapSpec};
 use crate::error::Result;
-use crate::junction::{EnergyConditions, Junction, HORIZON_TOL};
+use crate::junction::{admissible, EnergyConditions, Junction};
 use crate::scenario::{Scenario, Which};
 use crate::statics::{find_static_radii, Stability, StaticsOptions};
 use serde::Serialize;
@@ -26,6 +26,17 @@ pub enum CellClass {
 }
 
 impl CellClass {
+    /// The class of a point the admissibility rule refuses: on a horizon or in a region where no static
+    /// timelike shell (or none with the side's `keep`) can sit is `InsideHorizon`; the rest `NoStatic`.
+    pub fn refused(why: admissible::Inadmissible) -> CellClass {
+        use admissible::Inadmissible as I;
+        match why {
+            I::OnHorizon { .. } | I::WrongRegion { .. } => CellClass::InsideHorizon,
+            I::KeepContradicts { b, .. } if b <= 0.0 => CellClass::InsideHorizon,
+            _ => CellClass::NoStatic,
+        }
+    }
+
     /// Every class, in index order.
     pub const ALL: [CellClass; 5] =
         [CellClass::Stable, CellClass::Unstable, CellClass::Marginal, CellClass::NoStatic, CellClass::InsideHorizon];
@@ -177,18 +188,7 @@ pub const MARGINAL_TOL: f64 = crate::junction::stability::MARGINAL_TOL;
 pub(crate) fn static_point(j: &Junction<f64>, a: f64) -> std::result::Result<(f64, f64, f64, f64), CellClass> {
     let jm = j.jet(Which::Minus, a);
     let jp = j.jet(Which::Plus, a);
-    for jet in [&jm, &jp] {
-        let b = jet.b[0];
-        if b.is_nan() || jet.a[0].is_nan() {
-            return Err(CellClass::NoStatic);
-        }
-        if b <= HORIZON_TOL * (1.0 + a * jet.b[1].abs()) {
-            return Err(CellClass::InsideHorizon);
-        }
-        if jet.a[0] <= 0.0 {
-            return Err(CellClass::NoStatic);
-        }
-    }
+    admissible::static_site(j.kind, [j.keep_minus, j.keep_plus], a, [&jm, &jp]).map_err(CellClass::refused)?;
     let stress = j.stress_with_jets(&jm, &jp, a, 0.0, 0.0).map_err(|_| CellClass::NoStatic)?;
     let sv = crate::junction::StaticValues { a, stress, jets: [jm, jp] };
     let (c0, c1) = j.v2_coefficients(&sv).map_err(|_| CellClass::NoStatic)?;

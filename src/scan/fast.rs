@@ -11,8 +11,8 @@
 
 use super::cell::CellClass;
 use crate::expr::Tape;
-use crate::junction::HORIZON_TOL;
-use crate::scenario::Scenario;
+use crate::junction::admissible;
+use crate::scenario::{Keep, Scenario, ShellKind, Which};
 use num_dual::{Dual2_64, Dual64};
 use std::f64::consts::PI;
 
@@ -47,6 +47,10 @@ pub struct Shape {
     pub n_ang: f64,
     /// Signs of n^r on [minus, plus].
     pub nu: [f64; 2],
+    /// Timelike or spacelike (for the admissibility rule).
+    pub kind: ShellKind,
+    /// What [minus, plus] keep (for the admissibility rule).
+    pub keep: [Keep; 2],
 }
 
 impl Shape {
@@ -56,6 +60,8 @@ impl Shape {
             eps: s.shell.kind.eps(),
             n_ang: f64::from(s.dimension - 2),
             nu: [s.minus.normal_sign(), s.plus.normal_sign()],
+            kind: s.shell.kind,
+            keep: [s.minus.keep, s.plus.keep],
         }
     }
 }
@@ -74,22 +80,15 @@ impl Shape {
 /// sigma' = -n (Y1/a - y0/a^2)/(8 pi). With T = dB/(2Y), V = eps (B_+ + B_-)/2 - T^2 - Y^2/4 gives
 /// V'' = eps (B_+'' + B_-'')/2 - 2 (T'^2 + T T'') - (Y1^2 + y0 Y2)/2, linear in Y2 and hence in beta^2.
 pub fn static_coefficients(shape: &Shape, a: f64, jets: &[Jet2; 2]) -> Result<StaticCoefficients, CellClass> {
-    checked(a, jets, coefficients(shape, a, jets, jets[1] == jets[0]))
+    checked(shape, a, jets, coefficients(shape, a, jets, jets[1] == jets[0]))
 }
 
-/// The class decisions of [`static_coefficients`] applied to values computed without them.
+/// The class decisions of [`static_coefficients`] applied to values computed without them: the one
+/// admissibility rule ([`admissible::static_side`]), then finite values.
 #[inline(always)]
-fn checked(a: f64, jets: &[Jet2; 2], c: StaticCoefficients) -> Result<StaticCoefficients, CellClass> {
-    for j in jets {
-        if j.b[0].is_nan() || j.a[0].is_nan() {
-            return Err(CellClass::NoStatic);
-        }
-        if j.b[0] <= HORIZON_TOL * (1.0 + a * j.b[1].abs()) {
-            return Err(CellClass::InsideHorizon);
-        }
-        if j.a[0] <= 0.0 {
-            return Err(CellClass::NoStatic);
-        }
+fn checked(shape: &Shape, a: f64, jets: &[Jet2; 2], c: StaticCoefficients) -> Result<StaticCoefficients, CellClass> {
+    for ((side, keep), j) in [Which::Minus, Which::Plus].into_iter().zip(shape.keep).zip(jets) {
+        admissible::static_side(shape.kind, keep, side, a, j.a[0], j.b[0], j.b[1]).map_err(CellClass::refused)?;
     }
     if !(c.sigma.is_finite() && c.pressure.is_finite() && c.c0.is_finite() && c.c1.is_finite()) {
         return Err(CellClass::NoStatic);
@@ -101,7 +100,7 @@ fn checked(a: f64, jets: &[Jet2; 2], c: StaticCoefficients) -> Result<StaticCoef
 /// several radii at once); `same` says that both sides have identical jets.
 #[inline(always)]
 fn coefficients(shape: &Shape, a: f64, jets: &[Jet2; 2], same: bool) -> StaticCoefficients {
-    let Shape { eps, n_ang: n, nu } = *shape;
+    let Shape { eps, n_ang: n, nu, .. } = *shape;
     let pi8 = 8.0 * PI;
     // Per side: w = sqrt(eps B), Phi, Phi' and eps B'/(2 w); computed once when both sides are the same function.
     let side = |j: &Jet2| {
@@ -271,6 +270,7 @@ impl FastJunction {
     pub fn line_result(&self, scratch: &LineScratch, j: usize) -> Result<StaticCoefficients, CellClass> {
         let [s, p, c0, c1] = &scratch.coef;
         checked(
+            &self.shape,
             scratch.xs[j],
             &self.line_jets(scratch, j),
             StaticCoefficients { sigma: s[j], pressure: p[j], c0: c0[j], c1: c1[j] },

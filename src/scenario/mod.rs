@@ -430,6 +430,23 @@ impl Scenario {
                 ))
                 .with_hint("use keep = \"black-hole\" or \"white-hole\" (T-regions), or give normal_sign = 1 or -1"));
             }
+            let fixed_by_keep = (shell_kind == ShellKind::Timelike) == keep.is_r_region();
+            if let (Some(given), Some(span), true) = (explicit_normal_sign, rs.normal_sign.as_ref(), fixed_by_keep) {
+                let implied =
+                    Side { which, a: a.clone(), b: b.clone(), b_given, keep, explicit_normal_sign: None }.normal_sign();
+                if given != implied {
+                    return Err(Error::input(format!(
+                        "{}: [{which}] normal_sign = {given:+} contradicts keep = \"{}\", which fixes the sign of n^r on the {which} side of a {} shell to {implied:+}",
+                        at(span.span().start),
+                        keep.name(),
+                        shell_kind.name()
+                    ))
+                    .with_hint(format!(
+                        "remove normal_sign (keep fixes it), or change keep; the normal points from [minus] into [plus]{}",
+                        if shell_kind == ShellKind::Timelike { ", so a side kept as \"outer\" has n^r > 0 on [plus] and n^r < 0 on [minus]" } else { "" }
+                    )));
+                }
+            }
             Ok(Side { which, a, b, b_given, keep, explicit_normal_sign })
         };
         let minus = side(Which::Minus, &raw.minus)?;

@@ -11,7 +11,7 @@ pub mod tune;
 use crate::error::{Error, Result};
 use crate::expr::Scalar;
 use crate::junction::potential::Law;
-use crate::junction::{Junction, StaticValues};
+use crate::junction::{admissible, Jet, Junction, StaticValues};
 use crate::metric::{horizons, SideFns};
 use crate::roots::{find_roots, RootKind, RootOptions};
 use crate::scenario::{Scenario, ShellKind, Which};
@@ -155,9 +155,8 @@ pub struct StaticsReport {
 pub fn residual<T: Scalar>(j: &Junction<T>, a: T) -> Option<(T, StaticValues<T>)> {
     let jm = j.jet(Which::Minus, a);
     let jp = j.jet(Which::Plus, a);
-    if jm.b[0].re() <= 0.0 || jp.b[0].re() <= 0.0 {
-        return None;
-    }
+    let re = |j: &Jet<T>| Jet { a: j.a.map(|x| x.re()), b: j.b.map(|x| x.re()) };
+    admissible::static_site(j.kind, [j.keep_minus, j.keep_plus], a.re(), [&re(&jm), &re(&jp)]).ok()?;
     let stress = j.stress_with_jets(&jm, &jp, a, T::zero(), T::zero()).ok()?;
     let p_law = j.eos_at(stress.sigma(), |t| t)?;
     let f = stress.pressure() - p_law;
@@ -193,6 +192,21 @@ pub fn r_region_intervals(
             notes.push(format!("the range is split where B of the {w} side passes through a pole near r = {p:.6}"));
             cuts.push(p);
         }
+        if s.side(w).b_given {
+            // Zeros of A that are not zeros of B bound the parts where the metric changes signature.
+            let a_fns = SideFns { a: fns.a, b: fns.a, params };
+            let at_horizon = |x: f64| cuts.iter().any(|c: &f64| (c - x).abs() <= 1e-9 * x.abs().max(1.0));
+            let zeros: Vec<f64> = horizons(&a_fns, lo, hi, &opts.roots)
+                .0
+                .into_iter()
+                .map(|h| h.radius)
+                .filter(|&x| !at_horizon(x))
+                .collect();
+            for x in zeros {
+                notes.push(format!("the range is split where A of the {w} side vanishes off a horizon, r = {x:.12}"));
+                cuts.push(x);
+            }
+        }
     }
     cuts.sort_by(|a, b| a.total_cmp(b));
     let mut edges = vec![lo];
@@ -200,22 +214,51 @@ pub fn r_region_intervals(
     edges.push(hi);
     let mut out = Vec::new();
     for w in edges.windows(2) {
-        let (a, b) = (w[0] * (1.0 + opts.horizon_margin), w[1] * (1.0 - opts.horizon_margin));
+        let (mut a, mut b) = (w[0] * (1.0 + opts.horizon_margin), w[1] * (1.0 - opts.horizon_margin));
+        // Ends next to a horizon move inward until the admissibility rule accepts them (the horizon tolerance
+        // scales with r |B'|), so that the searched interval starts where `derive` would accept a radius.
+        let on_horizon =
+            |r: f64| matches!(admissible_at(s, params, r), Err(admissible::Inadmissible::OnHorizon { .. }));
+        let mut m = opts.horizon_margin;
+        while on_horizon(a) && m < 1e-3 && a < b {
+            m *= 2.0;
+            a = w[0] * (1.0 + m);
+        }
+        let mut m = opts.horizon_margin;
+        while on_horizon(b) && m < 1e-3 && a < b {
+            m *= 2.0;
+            b = w[1] * (1.0 - m);
+        }
         if b <= a {
             continue;
         }
         let mid = 0.5 * (a + b);
-        let ok = [Which::Minus, Which::Plus].iter().all(|&wh| SideFns::new(s.side(wh), params).b(mid) > 0.0);
-        if ok {
-            out.push(Interval { from: a, to: b });
-        } else {
-            notes.push(format!(
+        match admissible_at(s, params, mid) {
+            Ok(()) => out.push(Interval { from: a, to: b }),
+            Err(why @ admissible::Inadmissible::Signature { side, .. }) => notes.push(format!(
+                "skipped {:.6} < r < {:.6}: the metric of the {side} side changes signature there ({why} at r = {mid:.6}; no shell can sit there)",
+                w[0], w[1]
+            )),
+            Err(admissible::Inadmissible::KeepContradicts { side, keep, .. }) => notes.push(format!(
+                "skipped {:.6} < r < {:.6}: the {side} side keeps \"{}\" (a T-region) but is an R-region there",
+                w[0],
+                w[1],
+                keep.name()
+            )),
+            Err(_) => notes.push(format!(
                 "skipped {:.6} < r < {:.6}: a side is a T-region there (no static timelike shell)",
                 w[0], w[1]
-            ));
+            )),
         }
     }
     (out, notes)
+}
+
+/// The admissibility rule ([`admissible::static_site`]) for a static shell of the scenario at radius r.
+pub fn admissible_at(s: &Scenario, params: &[f64], r: f64) -> std::result::Result<(), admissible::Inadmissible> {
+    let j = Junction::with_params(s, params.to_vec());
+    let jets = [j.jet(Which::Minus, r), j.jet(Which::Plus, r)];
+    admissible::static_site(s.shell.kind, [s.minus.keep, s.plus.keep], r, [&jets[0], &jets[1]])
 }
 
 /// Classify one static radius with the scenario's law.
@@ -232,8 +275,7 @@ pub fn classify(
     let beta = j.eos_at(Dual64::new(sigma, 1.0), Dual64::from)?.eps;
     let v = j.potential_taylor(&sv, Law::Scenario)?;
     let scale = crate::junction::stability::marginal_scale(&ls, beta, a);
-    let near =
-        [0usize, 1].iter().any(|&i| sv.jets[i].b[0].abs() <= opts.near_horizon * (1.0 + a * sv.jets[i].b[1].abs()));
+    let near = sv.jets.iter().any(|j| admissible::near_horizon(a, j.b[0], j.b[1], opts.near_horizon));
     Some(StaticRadius {
         radius: a,
         sigma,
@@ -301,7 +343,20 @@ pub fn find_static_radii(s: &Scenario, lo: f64, hi: f64, opts: &StaticsOptions) 
     let params = s.params.values();
     let (intervals, mut notes) = r_region_intervals(s, params, lo, hi, opts);
     if intervals.is_empty() {
-        notes.push("no part of the range has both sides in an R-region: no static timelike shell is possible".into());
+        // The same refusal as `derive` where the whole range is refused for the metric itself (a signature
+        // change, or a keep the region contradicts), rather than an empty list.
+        let mid = 0.5 * (lo + hi);
+        match admissible_at(s, params, mid) {
+            Err(
+                why @ (admissible::Inadmissible::Signature { .. } | admissible::Inadmissible::KeepContradicts { .. }),
+            ) => {
+                return Err(crate::junction::admissible_error(mid, why)
+                    .context(format!("{}: no static shell can sit anywhere in {lo} < r < {hi}", s.origin.label())));
+            }
+            _ => notes.push(
+                "no part of the range has both sides in an R-region: no static timelike shell is possible".into(),
+            ),
+        }
     }
     let j1: Junction<Dual64> = Junction::with_params(s, lift_params(params));
     let j2: Junction<Dual2<f64, f64>> = Junction::with_params(s, lift_params(params));

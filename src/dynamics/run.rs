@@ -497,7 +497,7 @@ pub fn evolve(
         let (res, _) = residual(&j, a0)
             .ok_or_else(|| Error::numerical(format!("the law is undefined at the static radius {a0}")))?;
         let v2 = j.potential_taylor(&sv, Law::Scenario).map(|v| v[2]).unwrap_or(f64::NAN);
-        let beta2 = j.eos_at(num_dual::Dual64::new(sv.stress.sigma(), 1.0), num_dual::Dual64::from).map(|d| d.eps);
+        let beta2 = j.law_and_slope(sv.stress.sigma()).map(|(_, b)| b);
         let scale = match (j.linear_stability(&sv), beta2) {
             (Ok(ls), Some(b)) => marginal_scale(&ls, b, a0),
             _ => 1.0 / (a0 * a0),

@@ -88,6 +88,12 @@ impl<'a> Junction<'a, f64> {
         Junction::with_params(s, s.params.values().to_vec())
     }
 
+    /// The law at sigma: (P(sigma), beta^2 = P'(sigma)) by one dual-number evaluation; `None` without a law.
+    /// The one place beta^2 of the scenario's equation of state is computed (statics, maps, figures, evolve).
+    pub fn law_and_slope(&self, sigma: f64) -> Option<(f64, f64)> {
+        self.eos_at(num_dual::Dual64::new(sigma, 1.0), num_dual::Dual64::from).map(|d| (d.re, d.eps))
+    }
+
     /// One side's A and B bound to this junction's parameter values (for horizon finding in `metric`).
     pub fn side_fns(&self, which: Which) -> crate::metric::SideFns<'_> {
         let (a, b) = match which {

@@ -77,8 +77,8 @@ pub fn overlays(s: &Scenario, lo: f64, hi: f64) -> Overlays {
             let (b2, pl) = match j.static_values(a) {
                 Ok(sv) => {
                     let sg = sv.stress.sigma();
-                    let d = j.eos_at(num_dual::Dual64::new(sg, 1.0), num_dual::Dual64::from);
-                    (d.map(|d| d.eps).unwrap_or(f64::NAN), d.map(|d| d.re).unwrap_or(f64::NAN))
+                    let (p, b) = j.law_and_slope(sg).unwrap_or((f64::NAN, f64::NAN));
+                    (b, p)
                 }
                 Err(_) => (f64::NAN, f64::NAN),
             };

@@ -363,10 +363,7 @@ impl<'a> Evaluator<'a> {
                     Ok((sigma, p, c0, c1)) => {
                         let beta2 = match spec.beta2 {
                             Beta2Source::Fixed(b) => b,
-                            _ => j
-                                .eos_at(num_dual::Dual64::new(sigma, 1.0), num_dual::Dual64::from)
-                                .map(|d| d.eps)
-                                .unwrap_or(f64::NAN),
+                            _ => j.law_and_slope(sigma).map_or(f64::NAN, |(_, b)| b),
                         };
                         let bits = energy_bits(EnergyConditions::evaluate(sigma, p, self.s.dimension));
                         if beta2.is_finite() {

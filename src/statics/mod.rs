@@ -272,7 +272,7 @@ pub fn classify(
     let (f, sv) = residual(j, a)?;
     let ls = j.linear_stability(&sv).ok()?;
     let sigma = sv.stress.sigma();
-    let beta = j.eos_at(Dual64::new(sigma, 1.0), Dual64::from)?.eps;
+    let (_, beta) = j.law_and_slope(sigma)?;
     let v = j.potential_taylor(&sv, Law::Scenario)?;
     let scale = crate::junction::stability::marginal_scale(&ls, beta, a);
     let near = sv.jets.iter().any(|j| admissible::near_horizon(a, j.b[0], j.b[1], opts.near_horizon));

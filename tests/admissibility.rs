@@ -1,9 +1,9 @@
 //! One admissibility rule (`junction::admissible`) for every command: `derive`, `statics`, maps and `evolve`
 //! refuse the same points for the same reasons, and a `normal_sign` that contradicts `keep` is refused at load.
 //!
-//! The rule itself is common practice (Poisson 2004, A Relativist's Toolkit, sec. 3.7: a static timelike shell
-//! needs r = const timelike on both sides, B > 0, away from horizons; A and B of one sign, else the metric
-//! changes signature); these tests check that every path applies it identically.
+//! The rule itself is common practice (a static timelike shell needs r = const timelike on both sides, B > 0,
+//! away from horizons; A and B of one sign, else the metric changes signature); these tests check that every
+//! path applies it identically.
 
 use junctura::junction::{admissible, Junction};
 use junctura::scan::cell::CellClass;

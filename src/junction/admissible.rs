@@ -1,7 +1,8 @@
 //! Can a shell sit at this radius? The one rule, used by `derive`, `statics`, maps and `evolve`, so that every
 //! command refuses the same points for the same reason.
 //!
-//! A static shell at r = a needs, on each side (common practice; Poisson 2004, A Relativist's Toolkit, sec. 3.7):
+//! A static shell at r = a needs, on each side (common practice; the R/T-region language as in the module doc of
+//! [`crate::junction`]):
 //! 1. A, B and B' finite there;
 //! 2. a not (numerically) on a horizon: |B| > [`HORIZON_TOL`] (1 + a |B'|) — the junction formulas divide by
 //!    sqrt(|B|), and a shell on a horizon is a null shell;

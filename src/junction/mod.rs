@@ -172,9 +172,8 @@ impl<'a, T: Scalar> Junction<'a, T> {
         Ok(())
     }
 
-    /// Check that a static shell can sit at `a`: both sides in the region the shell kind needs (B > 0 for a
-    /// timelike shell, B < 0 for a spacelike one), not numerically at a horizon, and each R-region `keep`
-    /// consistent with B > 0 there.
+    /// Check that a static shell can sit at `a`: A, B and two derivatives finite (with the expression named),
+    /// then the one admissibility rule ([`admissible::static_site`]) as an error naming the side.
     pub fn check_static_radius(&self, a: f64, jm: &Jet<T>, jp: &Jet<T>) -> Result<()> {
         for (which, jet) in [(Which::Minus, jm), (Which::Plus, jp)] {
             self.check_finite_jet(which, a, jet, 2)?;

@@ -1,6 +1,7 @@
 //! Per-cell throughput of the map evaluator on 300 x 300 maps of the charged thin-shell wormhole, fast path
 //! against the generic reference path: (radius, beta2), where the junction work is shared along a beta^2
-//! line, and (radius, q) at a fixed beta^2, where every cell needs its own junction evaluation.
+//! line, and (radius, q) at a fixed beta^2, where every cell needs its own junction evaluation; and a map over two
+//! parameters of the linear-law gravastar, static radii continued from cell to cell against the full search.
 //!
 //! Run with `cargo bench --bench map`.
 
@@ -41,6 +42,24 @@ fn bench(c: &mut Criterion) {
                 })
             });
         }
+    }
+    group.finish();
+
+    // Two parameters, no radius axis: static radii continued from the neighbouring cell (fast) against the full
+    // search in every cell (generic), on the linear-law gravastar. 60 x 60: the full search costs ~1 ms per cell.
+    let path = concat!(env!("CARGO_MANIFEST_DIR"), "/scenarios/gravastar-linear.toml");
+    let g = Scenario::load(std::path::Path::new(path)).expect("the shipped scenario loads");
+    let ax = |name: &str, lo: f64, hi: f64| Axis::new(&g, name, lo, hi, 60).expect("axis");
+    let spec = MapSpec::new(&g, ax("l", 0.01, 0.2), ax("w", 0.1, 1.5), None, (1e-3, 20.0)).expect("map spec");
+    let mut group = c.benchmark_group("map_two_parameters");
+    group.throughput(Throughput::Elements((60 * 60) as u64));
+    group.sample_size(10).warm_up_time(Duration::from_millis(300)).measurement_time(Duration::from_secs(4));
+    for (label, method) in [("continued", Method::Fast), ("full_search", Method::Generic)] {
+        group.bench_function(BenchmarkId::new(label, "l_w"), |b| {
+            b.iter(|| {
+                pool.install(|| black_box(summarize_lines_with(&g, &spec, 0..spec.n_lines(), method).expect("map")))
+            })
+        });
     }
     group.finish();
 }

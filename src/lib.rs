@@ -36,6 +36,7 @@ pub mod geodesic;
 pub mod input;
 pub mod junction;
 pub mod metric;
+pub mod model;
 pub mod output;
 pub mod plot;
 pub mod rational;

@@ -24,6 +24,13 @@ impl<'a> SideFns<'a> {
         SideFns { a: &side.a, b: &side.b, params }
     }
 
+    /// Bind a model side to parameter values.
+    pub fn of(side: &'a crate::model::SideModel, params: &'a [f64]) -> Self {
+        match &side.metric {
+            crate::model::Metric::Expr(e) => SideFns { a: &e.a, b: &e.b, params },
+        }
+    }
+
     /// A(r).
     #[inline]
     pub fn a<T: Scalar>(&self, r: T) -> T {

@@ -92,7 +92,7 @@ fn derive_statics_and_maps_agree_on_every_point() {
             let r = rng.uniform(0.02, 12.0) * scale;
             let (jm, jp) = (j.jet(Which::Minus, r), j.jet(Which::Plus, r));
             let derive = j.check_static_radius(r, &jm, &jp);
-            let rule = admissible_at(&s, params, r);
+            let rule = admissible_at(&s.model, params, r);
             let map = static_coefficients(&fj.shape, r, &fj.point_jets(r, params));
             let statics = residual(&j, r);
             // Finite A'' and B'' (derive checks them too) hold at every sampled point of these metrics.
@@ -176,10 +176,10 @@ fn normal_sign_contradicting_keep_is_refused() {
 fn each_reason_names_its_side() {
     let s = Scenario::parse(KEEP_T_REGION, None).unwrap();
     // At r = 4 the plus side is an R-region, but it keeps "black-hole".
-    let why = admissible_at(&s, s.params.values(), 4.0).unwrap_err();
+    let why = admissible_at(&s.model, s.params.values(), 4.0).unwrap_err();
     assert!(matches!(why, admissible::Inadmissible::KeepContradicts { side: Which::Plus, .. }), "{why:?}");
     // At r = 1 it is a T-region: no static timelike shell.
-    let why = admissible_at(&s, s.params.values(), 1.0).unwrap_err();
+    let why = admissible_at(&s.model, s.params.values(), 1.0).unwrap_err();
     assert!(matches!(why, admissible::Inadmissible::WrongRegion { side: Which::Plus, .. }), "{why:?}");
     assert_eq!(why.side(), Which::Plus);
 }

@@ -205,7 +205,7 @@ fn identically_static_law_is_one_neutral_interval() {
     // The interval starts where the one horizon rule (junction::admissible, |B| > 1e-9 (1 + r |B'|)) admits a
     // static shell: next to the double horizon B = (1 - M/r)^2 that is r - M ~ M sqrt(1e-9) ~ 3e-5 M.
     assert!(rel(n.from, mm) < 1e-4 && rel(n.to, 100.0) < 1e-6, "{n:?}");
-    assert!(junctura::statics::admissible_at(&s, s.params.values(), n.from).is_ok());
+    assert!(junctura::statics::admissible_at(&s.model, s.params.values(), n.from).is_ok());
     let out = std::process::Command::new(env!("CARGO_BIN_EXE_junctura"))
         .args(["statics", root().join("scenarios/extremal-charged-dust.toml").to_str().unwrap()])
         .output()

@@ -26,7 +26,8 @@ pub mod potential;
 pub mod stability;
 
 use crate::error::{Error, Result};
-use crate::expr::{Expr, Scalar};
+use crate::expr::Scalar;
+use crate::model::{EquationOfState, MetricSide, Model};
 use crate::scenario::{Keep, Scenario, ShellKind, Which};
 use num_dual::Dual3;
 
@@ -72,20 +73,16 @@ pub struct Junction<'a, T: Scalar = f64> {
     pub keep_minus: Keep,
     /// Which part the plus side keeps.
     pub keep_plus: Keep,
-    minus_a: &'a Expr,
-    minus_b: &'a Expr,
-    plus_a: &'a Expr,
-    plus_b: &'a Expr,
-    /// Equation of state p(sigma), if the scenario gives one.
-    pub eos: Option<&'a Expr>,
-    /// Parameter values, in the scenario's order.
+    /// The model: both sides' metric functions and the equation of state.
+    pub model: &'a Model,
+    /// Parameter values, in the model's order.
     pub params: Vec<T>,
 }
 
 impl<'a> Junction<'a, f64> {
     /// The junction of a scenario at its current parameter values.
     pub fn new(s: &'a Scenario) -> Junction<'a, f64> {
-        Junction::with_params(s, s.params.values().to_vec())
+        Junction::with_params(&s.model, s.params.values().to_vec())
     }
 
     /// The law at sigma: (P(sigma), beta^2 = P'(sigma)) by one dual-number evaluation; `None` without a law.
@@ -96,30 +93,22 @@ impl<'a> Junction<'a, f64> {
 
     /// One side's A and B bound to this junction's parameter values (for horizon finding in `metric`).
     pub fn side_fns(&self, which: Which) -> crate::metric::SideFns<'_> {
-        let (a, b) = match which {
-            Which::Minus => (self.minus_a, self.minus_b),
-            Which::Plus => (self.plus_a, self.plus_b),
-        };
-        crate::metric::SideFns { a, b, params: &self.params }
+        crate::metric::SideFns::of(self.model.side(which), &self.params)
     }
 }
 
 impl<'a, T: Scalar> Junction<'a, T> {
-    /// The junction of a scenario with the given parameter values (of any number type).
-    pub fn with_params(s: &'a Scenario, params: Vec<T>) -> Junction<'a, T> {
+    /// The junction of a model with the given parameter values (of any number type).
+    pub fn with_params(model: &'a Model, params: Vec<T>) -> Junction<'a, T> {
         Junction {
-            dimension: s.dimension,
-            kind: s.shell.kind,
-            eps: s.shell.kind.eps(),
-            nu_minus: s.minus.normal_sign(),
-            nu_plus: s.plus.normal_sign(),
-            keep_minus: s.minus.keep,
-            keep_plus: s.plus.keep,
-            minus_a: &s.minus.a,
-            minus_b: &s.minus.b,
-            plus_a: &s.plus.a,
-            plus_b: &s.plus.b,
-            eos: s.shell.eos.as_ref(),
+            dimension: model.dimension,
+            kind: model.kind,
+            eps: model.kind.eps(),
+            nu_minus: model.minus.normal_sign,
+            nu_plus: model.plus.normal_sign,
+            keep_minus: model.minus.keep,
+            keep_plus: model.plus.keep,
+            model,
             params,
         }
     }
@@ -131,37 +120,31 @@ impl<'a, T: Scalar> Junction<'a, T> {
 
     /// A, B and three derivatives of side `which` at radius `r`.
     pub fn jet(&self, which: Which, r: T) -> Jet<T> {
-        let (ea, eb) = match which {
-            Which::Minus => (self.minus_a, self.minus_b),
-            Which::Plus => (self.plus_a, self.plus_b),
-        };
+        let side = &self.model.side(which).metric;
         let x = Dual3::new(r, T::one(), T::zero(), T::zero());
         let lift = |k: usize| Dual3::new(self.params[k], T::zero(), T::zero(), T::zero());
-        let a: Dual3<T, f64> = ea.eval_with(x, lift);
-        let b: Dual3<T, f64> = if std::ptr::eq(ea, eb) { a } else { eb.eval_with(x, lift) };
+        let a: Dual3<T, f64> = side.a(x, lift);
+        let b: Dual3<T, f64> = if side.b_is_a() { a } else { side.b(x, lift) };
         Jet { a: [a.re, a.v1, a.v2, a.v3], b: [b.re, b.v1, b.v2, b.v3] }
     }
 
     /// Evaluate the equation of state P(sigma) at any number type built on `T`.
     pub fn eos_at<U: Scalar, L: Fn(T) -> U + Copy>(&self, sigma: U, lift: L) -> Option<U> {
-        self.eos.map(|e| e.eval_with(sigma, |k| lift(self.params[k])))
+        self.model.law.as_ref().map(|l| l.pressure(sigma, |k| lift(self.params[k])))
     }
 
     /// Check that A, B and their derivatives up to `order` (at most 3) of side `which` are finite at radius
     /// `r`; the error names the side, the function (A or B, with its expression) and the derivative.
     pub fn check_finite_jet(&self, which: Which, r: f64, jet: &Jet<T>, order: usize) -> Result<()> {
-        let (ea, eb) = match which {
-            Which::Minus => (self.minus_a, self.minus_b),
-            Which::Plus => (self.plus_a, self.plus_b),
-        };
+        let sources = self.model.side(which).metric.expressions().map(|(a, b)| [a.source(), b.source()]);
         const WHAT: [&str; 4] =
             ["", "the first derivative of ", "the second derivative of ", "the third derivative of "];
         for (k, what) in WHAT.iter().enumerate().take(order.min(3) + 1) {
-            for (name, e, v) in [("A", ea, jet.a[k].re()), ("B", eb, jet.b[k].re())] {
+            for (i, name, v) in [(0, "A", jet.a[k].re()), (1, "B", jet.b[k].re())] {
                 if !v.is_finite() {
+                    let typed = sources.map(|s| format!(" ({name} = \"{}\" gives {v})", s[i])).unwrap_or_default();
                     return Err(Error::numerical(format!(
-                        "radius {r}: {what}{name} of the {which} side is not finite there ({name} = \"{}\" gives {v})",
-                        e.source()
+                        "radius {r}: {what}{name} of the {which} side is not finite there{typed}"
                     ))
                     .with_hint(format!(
                         "{name} is singular or undefined at r = {r} (a division by zero, or log/sqrt of a negative number); choose another radius"

@@ -32,7 +32,7 @@ pub struct ReportOptions {
 /// are R-regions within the default survey range, its upper end clipped to a few times the length scale.
 pub fn plot_range(s: &Scenario) -> Option<(f64, f64)> {
     let (lo, hi) = crate::metric::default_range(s);
-    let (ivs, _) = r_region_intervals(s, s.params.values(), lo, hi, &StaticsOptions::default());
+    let (ivs, _) = r_region_intervals(&s.model, s.params.values(), lo, hi, &StaticsOptions::default());
     let l = crate::metric::length_scale(s);
     // Prefer the interval that contains most of [L, 12 L]; fall back to the last one.
     let iv =

@@ -1,57 +1,14 @@
 //! One map cell: its values, its class, and the per-line evaluator.
 
+pub use super::class::CellClass;
 use super::fast::{static_coefficients, FastJunction, LineScratch, StaticCoefficients};
 use super::grid::{AxisKind, Beta2Source, MapSpec};
 use crate::error::Result;
 use crate::junction::{admissible, EnergyConditions, Junction};
 use crate::scenario::{Scenario, Which};
-use crate::statics::{find_static_radii, Stability, StaticsOptions};
+use crate::statics::continuation::continue_search;
+use crate::statics::{search, Stability, StaticSearch, StaticsOptions};
 use serde::Serialize;
-
-/// Stability class of a cell.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
-#[serde(rename_all = "snake_case")]
-#[repr(u8)]
-pub enum CellClass {
-    /// V''(a0) > 0.
-    Stable = 0,
-    /// V''(a0) < 0.
-    Unstable = 1,
-    /// V''(a0) = 0 within tolerance.
-    Marginal = 2,
-    /// No static shell (the junction values do not exist there, or the law has no static radius).
-    NoStatic = 3,
-    /// The radius is inside (or on) a horizon of a side: no static timelike shell.
-    InsideHorizon = 4,
-}
-
-impl CellClass {
-    /// The class of a point the admissibility rule refuses: on a horizon or in a region where no static
-    /// timelike shell (or none with the side's `keep`) can sit is `InsideHorizon`; the rest `NoStatic`.
-    pub fn refused(why: admissible::Inadmissible) -> CellClass {
-        use admissible::Inadmissible as I;
-        match why {
-            I::OnHorizon { .. } | I::WrongRegion { .. } => CellClass::InsideHorizon,
-            I::KeepContradicts { b, .. } if b <= 0.0 => CellClass::InsideHorizon,
-            _ => CellClass::NoStatic,
-        }
-    }
-
-    /// Every class, in index order.
-    pub const ALL: [CellClass; 5] =
-        [CellClass::Stable, CellClass::Unstable, CellClass::Marginal, CellClass::NoStatic, CellClass::InsideHorizon];
-
-    /// The word used in data files.
-    pub fn name(self) -> &'static str {
-        match self {
-            CellClass::Stable => "stable",
-            CellClass::Unstable => "unstable",
-            CellClass::Marginal => "marginal",
-            CellClass::NoStatic => "no_static_shell",
-            CellClass::InsideHorizon => "inside_horizon",
-        }
-    }
-}
 
 /// One evaluated cell. Numbers that do not exist for the class are NaN (written as empty fields with the
 /// class as the reason).
@@ -218,10 +175,12 @@ pub fn classify_v2(c0: f64, c1: f64, beta2: f64) -> (f64, CellClass) {
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Method {
     /// Plain f64: compiled tapes (batched along radius lines) and the closed-form V'' coefficients
-    /// ([`super::fast`]). The default.
+    /// ([`super::fast`]); on maps over two parameters, static radii continued from the previous cell of the
+    /// line ([`crate::statics::continuation`]). The default.
     Fast,
     /// The generic reference: a `Junction` per cell, dual-number tree walks and the Picard expansion of the
-    /// potential ([`Junction::v2_coefficients`]).
+    /// potential ([`Junction::v2_coefficients`]); on maps over two parameters, the full static-radius search in
+    /// every cell.
     Generic,
 }
 
@@ -305,7 +264,7 @@ impl<'a> Evaluator<'a> {
             let res = match &self.fast {
                 Some(f) => static_coefficients(&f.shape, radius, &f.point_jets(radius, &params))
                     .map(|c| (c.sigma, c.pressure, c.c0, c.c1)),
-                None => static_point(&Junction::with_params(self.s, params.clone()), radius),
+                None => static_point(&Junction::with_params(&self.s.model, params.clone()), radius),
             };
             let bits = res.map(|(sigma, p, _, _)| energy_bits(EnergyConditions::evaluate(sigma, p, self.s.dimension)));
             let (axis, other) = if spec.lines_are_columns() { (&spec.y, x0) } else { (&spec.x, y0) };
@@ -351,14 +310,15 @@ impl<'a> Evaluator<'a> {
                 ));
             }
         } else {
+            let mut prev = None;
             for jj in 0..n {
                 let (ix, iy, x, y) = xy(jj);
                 let (radius, _) = self.point(x, y, &mut params);
                 if radius.is_nan() {
-                    emit(self.statics_cell(ix, iy, x, y, &params));
+                    emit(self.statics_cell(ix, iy, (x, y), &params, &mut prev));
                     continue;
                 }
-                let j = Junction::with_params(self.s, params.clone());
+                let j = Junction::with_params(&self.s.model, params.clone());
                 emit(match static_point(&j, radius) {
                     Ok((sigma, p, c0, c1)) => {
                         let beta2 = match spec.beta2 {
@@ -447,16 +407,29 @@ impl<'a> Evaluator<'a> {
         }
     }
 
-    fn statics_cell(&self, ix: usize, iy: usize, x: f64, y: f64, params: &[f64]) -> Cell {
-        let mut sc = self.s.clone();
-        for (k, v) in params.iter().enumerate() {
-            let name = sc.params.names()[k].clone();
-            if sc.params.set(&name, *v).is_err() {
-                return Cell::empty(ix, iy, x, y, CellClass::NoStatic);
-            }
-        }
+    /// A cell of a map over two parameters: every static radius in the map's radius range, one picked by the
+    /// root rule. `prev` holds the search at the previous cell of the line: on the fast path the search
+    /// continues from it (`statics::continuation`), falling back to the full search where the structure changed.
+    fn statics_cell(
+        &self,
+        ix: usize,
+        iy: usize,
+        (x, y): (f64, f64),
+        params: &[f64],
+        prev: &mut Option<StaticSearch>,
+    ) -> Cell {
         let (lo, hi) = self.spec.radius_range;
-        let Ok(rep) = find_static_radii(&sc, lo, hi, &self.statics) else {
+        let model = &self.s.model;
+        let continued = match (prev.as_ref(), self.fast.is_some()) {
+            (Some(p), true) => continue_search(model, params, p, lo, hi, &self.statics),
+            _ => None,
+        };
+        let found = match continued {
+            Some(c) => Ok(c),
+            None => search(model, params, lo, hi, &self.statics),
+        };
+        *prev = found.as_ref().ok().cloned();
+        let Ok(rep) = found else {
             return Cell::empty(ix, iy, x, y, CellClass::NoStatic);
         };
         let pick = match self.spec.root_rule {

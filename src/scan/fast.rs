@@ -9,7 +9,7 @@
 //! the Lanczos equation with 8 pi (Israel 1966; Poisson 2004 ch. 3), V''(a0) linear in beta^2 (Poisson & Visser
 //! 1995; Garcia, Lobo & Visser 2012 for A != B and the flux term).
 
-use super::cell::CellClass;
+use super::class::CellClass;
 use crate::expr::Tape;
 use crate::junction::admissible;
 use crate::scenario::{Keep, Scenario, ShellKind, Which};

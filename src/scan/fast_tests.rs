@@ -25,7 +25,7 @@ fn close(a: f64, b: f64, scale: f64) -> bool {
 /// Compare both paths at radius `a` with parameters `params`; returns true if a static shell exists there.
 fn agree(s: &Scenario, params: &[f64], a: f64, what: &str) -> bool {
     let fj = FastJunction::new(s);
-    let j = Junction::with_params(s, params.to_vec());
+    let j = Junction::with_params(&s.model, params.to_vec());
     let generic = static_point(&j, a);
     let fast = static_coefficients(&fj.shape, a, &fj.point_jets(a, params));
     // The batch path over a line of radii gives the same jets as the per-point path.

@@ -12,6 +12,7 @@
 //!   the radius range (stable if any is stable, else unstable/marginal if any, else no static shell).
 
 pub mod cell;
+pub mod class;
 pub mod fast;
 pub mod grid;
 

@@ -25,6 +25,7 @@ pub use symbols::{latex_to_unicode, Symbols};
 
 use crate::error::{Error, Result};
 use crate::expr::{Expr, Func, ParseError};
+use crate::model::{Eos, ExprLaw, ExprSide, Metric, Model, SideModel};
 use sha2::{Digest, Sha256};
 use std::fmt;
 use std::path::{Path, PathBuf};
@@ -150,6 +151,16 @@ impl Side {
             Which::Minus => -zeta,
         }
     }
+
+    /// This side as the physics model sees it.
+    pub fn model(&self) -> SideModel {
+        SideModel {
+            which: self.which,
+            metric: Metric::Expr(ExprSide { a: self.a.clone(), b: self.b.clone(), b_given: self.b_given }),
+            keep: self.keep,
+            normal_sign: self.normal_sign(),
+        }
+    }
 }
 
 /// The named constants of a scenario, in file order.
@@ -202,6 +213,14 @@ impl Params {
         check_magnitude(name, value)?;
         self.values[k] = value;
         Ok(())
+    }
+
+    /// The value vector with parameter `name` set to `value` (checked as by [`Params::set`]), for a model
+    /// evaluated at other parameter values without copying the scenario.
+    pub fn values_with(&self, name: &str, value: f64) -> Result<Vec<f64>> {
+        let mut p = self.clone();
+        p.set(name, value)?;
+        Ok(p.values)
     }
 
     /// `name = value` pairs, for provenance lines.
@@ -261,6 +280,8 @@ pub struct Scenario {
     pub symbols: Symbols,
     /// Source text and hash.
     pub origin: Origin,
+    /// The physics of the file (sides, shell, law, parameter names), built once at load.
+    pub model: Model,
 }
 
 /// Largest |parameter| accepted: radii up to 1e3 times it (the default range) and the junction quantities
@@ -512,7 +533,25 @@ impl Scenario {
             ))
             .with_hint("write the name on one line of plain text; it is copied into every output file"));
         }
-        Ok(Scenario { name, dimension, params, minus, plus, shell: Shell { kind: shell_kind, eos }, symbols, origin })
+        let model = Model {
+            dimension,
+            kind: shell_kind,
+            minus: minus.model(),
+            plus: plus.model(),
+            law: eos.clone().map(|e| Eos::Expr(ExprLaw(e))),
+            names: params.names().to_vec(),
+        };
+        Ok(Scenario {
+            name,
+            dimension,
+            params,
+            minus,
+            plus,
+            shell: Shell { kind: shell_kind, eos },
+            symbols,
+            origin,
+            model,
+        })
     }
 
     /// Apply `NAME=VALUE` overrides from the command line.

@@ -5,6 +5,7 @@
 //! over the part of the interval where both sides are R-regions (the only places a static timelike shell can
 //! sit), split at horizons, with the failure modes made explicit (see `roots`).
 
+pub mod continuation;
 pub mod sweep;
 pub mod tune;
 
@@ -13,6 +14,7 @@ use crate::expr::Scalar;
 use crate::junction::potential::Law;
 use crate::junction::{admissible, Jet, Junction, StaticValues};
 use crate::metric::{horizons, SideFns};
+use crate::model::{MetricSide, Model};
 use crate::roots::{find_roots, RootKind, RootOptions};
 use crate::scenario::{Scenario, ShellKind, Which};
 use num_dual::{Dual2, Dual64};
@@ -171,31 +173,72 @@ pub fn lift_params<T: Scalar>(params: &[f64]) -> Vec<T> {
     params.iter().map(|&p| T::from(p)).collect()
 }
 
+/// Where the search range is cut: a horizon (a root of B), a pole of B, or a zero of A off a horizon.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum CutKind {
+    /// A simple root of B.
+    Horizon,
+    /// A degenerate (double) root of B.
+    DegenerateHorizon,
+    /// A sign change of B through a pole.
+    Pole,
+    /// A zero of A that is not a zero of B (the metric changes signature there).
+    AZero,
+}
+
+/// One cut of the search range.
+#[derive(Debug, Clone, Copy)]
+pub struct Cut {
+    /// Radius.
+    pub radius: f64,
+    /// The side it belongs to.
+    pub side: Which,
+    /// What vanishes or diverges there.
+    pub kind: CutKind,
+}
+
+/// The note a cut leaves in a statics report.
+pub(crate) fn cut_note(c: &Cut) -> String {
+    let (r, w) = (c.radius, c.side);
+    match c.kind {
+        CutKind::Horizon | CutKind::DegenerateHorizon => {
+            format!("the range is split at the horizon r = {r:.12} of the {w} side")
+        }
+        CutKind::Pole => format!("the range is split where B of the {w} side passes through a pole near r = {r:.6}"),
+        CutKind::AZero => format!("the range is split where A of the {w} side vanishes off a horizon, r = {r:.12}"),
+    }
+}
+
 /// The parts of [lo, hi] where both sides are R-regions (B > 0), with horizons cut out by a small margin.
 pub fn r_region_intervals(
-    s: &Scenario,
+    m: &Model,
     params: &[f64],
     lo: f64,
     hi: f64,
     opts: &StaticsOptions,
 ) -> (Vec<Interval>, Vec<String>) {
-    let mut cuts = vec![];
-    let mut notes = vec![];
+    let cuts = range_cuts(m, params, lo, hi, opts);
+    let (out, notes, _) = intervals_between(m, params, lo, hi, &cuts, opts);
+    (out, notes)
+}
+
+/// Every cut of [lo, hi]: horizons and poles of B on each side, zeros of A off a horizon where B is given.
+pub fn range_cuts(m: &Model, params: &[f64], lo: f64, hi: f64, opts: &StaticsOptions) -> Vec<Cut> {
+    let mut cuts: Vec<Cut> = vec![];
     for w in [Which::Minus, Which::Plus] {
-        let fns = SideFns::new(s.side(w), params);
+        let fns = SideFns::of(m.side(w), params);
         let (hs, poles) = horizons(&fns, lo, hi, &opts.roots);
         for h in hs {
-            notes.push(format!("the range is split at the horizon r = {:.12} of the {w} side", h.radius));
-            cuts.push(h.radius);
+            let kind = if h.degenerate { CutKind::DegenerateHorizon } else { CutKind::Horizon };
+            cuts.push(Cut { radius: h.radius, side: w, kind });
         }
         for p in poles {
-            notes.push(format!("the range is split where B of the {w} side passes through a pole near r = {p:.6}"));
-            cuts.push(p);
+            cuts.push(Cut { radius: p, side: w, kind: CutKind::Pole });
         }
-        if s.side(w).b_given {
+        if !m.side(w).metric.b_is_a() {
             // Zeros of A that are not zeros of B bound the parts where the metric changes signature.
             let a_fns = SideFns { a: fns.a, b: fns.a, params };
-            let at_horizon = |x: f64| cuts.iter().any(|c: &f64| (c - x).abs() <= 1e-9 * x.abs().max(1.0));
+            let at_horizon = |x: f64| cuts.iter().any(|c| (c.radius - x).abs() <= 1e-9 * x.abs().max(1.0));
             let zeros: Vec<f64> = horizons(&a_fns, lo, hi, &opts.roots)
                 .0
                 .into_iter()
@@ -203,38 +246,56 @@ pub fn r_region_intervals(
                 .filter(|&x| !at_horizon(x))
                 .collect();
             for x in zeros {
-                notes.push(format!("the range is split where A of the {w} side vanishes off a horizon, r = {x:.12}"));
-                cuts.push(x);
+                cuts.push(Cut { radius: x, side: w, kind: CutKind::AZero });
             }
         }
     }
+    cuts
+}
+
+/// The searched intervals between cuts (ends nudged off horizons until admitted), the notes, and for each
+/// interval the index of the window between cuts it came from.
+pub(crate) fn intervals_between(
+    m: &Model,
+    params: &[f64],
+    lo: f64,
+    hi: f64,
+    cuts: &[Cut],
+    opts: &StaticsOptions,
+) -> (Vec<Interval>, Vec<String>, Vec<usize>) {
+    let mut notes: Vec<String> = cuts.iter().map(cut_note).collect();
+    let mut cuts: Vec<f64> = cuts.iter().map(|c| c.radius).collect();
     cuts.sort_by(|a, b| a.total_cmp(b));
     let mut edges = vec![lo];
     edges.extend(cuts.into_iter().filter(|c| *c > lo && *c < hi));
     edges.push(hi);
     let mut out = Vec::new();
-    for w in edges.windows(2) {
+    let mut window = Vec::new();
+    for (wi, w) in edges.windows(2).enumerate() {
         let (mut a, mut b) = (w[0] * (1.0 + opts.horizon_margin), w[1] * (1.0 - opts.horizon_margin));
         // Ends next to a horizon move inward until the admissibility rule accepts them (the horizon tolerance
         // scales with r |B'|), so that the searched interval starts where `derive` would accept a radius.
         let on_horizon =
-            |r: f64| matches!(admissible_at(s, params, r), Err(admissible::Inadmissible::OnHorizon { .. }));
-        let mut m = opts.horizon_margin;
-        while on_horizon(a) && m < 1e-3 && a < b {
-            m *= 2.0;
-            a = w[0] * (1.0 + m);
+            |r: f64| matches!(admissible_at(m, params, r), Err(admissible::Inadmissible::OnHorizon { .. }));
+        let mut margin = opts.horizon_margin;
+        while on_horizon(a) && margin < 1e-3 && a < b {
+            margin *= 2.0;
+            a = w[0] * (1.0 + margin);
         }
-        let mut m = opts.horizon_margin;
-        while on_horizon(b) && m < 1e-3 && a < b {
-            m *= 2.0;
-            b = w[1] * (1.0 - m);
+        let mut margin = opts.horizon_margin;
+        while on_horizon(b) && margin < 1e-3 && a < b {
+            margin *= 2.0;
+            b = w[1] * (1.0 - margin);
         }
         if b <= a {
             continue;
         }
         let mid = 0.5 * (a + b);
-        match admissible_at(s, params, mid) {
-            Ok(()) => out.push(Interval { from: a, to: b }),
+        match admissible_at(m, params, mid) {
+            Ok(()) => {
+                out.push(Interval { from: a, to: b });
+                window.push(wi);
+            }
             Err(why @ admissible::Inadmissible::Signature { side, .. }) => notes.push(format!(
                 "skipped {:.6} < r < {:.6}: the metric of the {side} side changes signature there ({why} at r = {mid:.6}; no shell can sit there)",
                 w[0], w[1]
@@ -251,24 +312,18 @@ pub fn r_region_intervals(
             )),
         }
     }
-    (out, notes)
+    (out, notes, window)
 }
 
-/// The admissibility rule ([`admissible::static_site`]) for a static shell of the scenario at radius r.
-pub fn admissible_at(s: &Scenario, params: &[f64], r: f64) -> std::result::Result<(), admissible::Inadmissible> {
-    let j = Junction::with_params(s, params.to_vec());
+/// The admissibility rule ([`admissible::static_site`]) for a static shell of the model at radius r.
+pub fn admissible_at(m: &Model, params: &[f64], r: f64) -> std::result::Result<(), admissible::Inadmissible> {
+    let j = Junction::with_params(m, params.to_vec());
     let jets = [j.jet(Which::Minus, r), j.jet(Which::Plus, r)];
-    admissible::static_site(s.shell.kind, [s.minus.keep, s.plus.keep], r, [&jets[0], &jets[1]])
+    admissible::static_site(m.kind, [m.minus.keep, m.plus.keep], r, [&jets[0], &jets[1]])
 }
 
-/// Classify one static radius with the scenario's law.
-pub fn classify(
-    s: &Scenario,
-    j: &Junction<f64>,
-    a: f64,
-    double_root: bool,
-    opts: &StaticsOptions,
-) -> Option<StaticRadius> {
+/// Classify one static radius with the model's law.
+pub fn classify(j: &Junction<f64>, a: f64, double_root: bool, opts: &StaticsOptions) -> Option<StaticRadius> {
     let (f, sv) = residual(j, a)?;
     let ls = j.linear_stability(&sv).ok()?;
     let sigma = sv.stress.sigma();
@@ -286,10 +341,10 @@ pub fn classify(
         beta2_critical: ls.beta2_critical,
         residual: f.abs(),
         potential: [v[0], v[1]],
-        shell_mass: crate::junction::conditions::shell_mass(a, sigma, s.dimension),
+        shell_mass: crate::junction::conditions::shell_mass(a, sigma, j.dimension),
         double_root,
         near_horizon: near,
-        energy_conditions: crate::junction::EnergyConditions::evaluate(sigma, sv.stress.pressure(), s.dimension),
+        energy_conditions: crate::junction::EnergyConditions::evaluate(sigma, sv.stress.pressure(), j.dimension),
     })
 }
 
@@ -301,18 +356,7 @@ pub fn classify(
 /// sample spacing. Example: dust (p = 0), flat inside, extremal Reissner-Nordstrom outside: p0 = 0 at every radius.
 pub fn neutral_intervals(j: &Junction<f64>, iv: &Interval, opts: &StaticsOptions) -> Vec<Interval> {
     let xs = crate::roots::sample_points(iv.from, iv.to, opts.roots.samples);
-    let zero: Vec<bool> = xs
-        .iter()
-        .map(|&a| {
-            residual(j, a).is_some_and(|(f, sv)| {
-                let st = &sv.stress;
-                let terms = (st.k_ss.iter().chain(&st.k_thth).map(|k| k.abs()).sum::<f64>())
-                    / (8.0 * std::f64::consts::PI)
-                    + (st.pressure() - f).abs();
-                f.abs() <= opts.identically_static_tol * terms && terms > 0.0
-            })
-        })
-        .collect();
+    let zero: Vec<bool> = xs.iter().map(|&a| residual_is_rounding(j, a, opts)).collect();
     let mut out = Vec::new();
     let mut i = 0;
     while i < xs.len() {
@@ -331,36 +375,90 @@ pub fn neutral_intervals(j: &Junction<f64>, iv: &Interval, opts: &StaticsOptions
     out
 }
 
+/// The static radii of a model's law in a range: the searched intervals, neutral intervals, radii, rejected
+/// poles and notes (the physics of [`StaticsReport`] without the scenario's metadata).
+#[derive(Debug, Clone)]
+pub struct StaticSearch {
+    /// Intervals searched.
+    pub intervals: Vec<Interval>,
+    /// Intervals on which the static condition holds identically.
+    pub neutral_intervals: Vec<Interval>,
+    /// Static radii, sorted.
+    pub static_radii: Vec<StaticRadius>,
+    /// Sign changes rejected as poles.
+    pub poles_rejected: Vec<f64>,
+    /// Notes for the reader.
+    pub notes: Vec<String>,
+    /// Where the range was cut (horizons, poles, zeros of A).
+    pub cuts: Vec<Cut>,
+    /// For each searched interval, the index of the window between consecutive cuts it lies in.
+    pub windows: Vec<usize>,
+}
+
+/// True where |p0 - P(sigma0)| is rounding noise of the terms it is built from (the test of
+/// [`neutral_intervals`]).
+pub(crate) fn residual_is_rounding(j: &Junction<f64>, a: f64, opts: &StaticsOptions) -> bool {
+    residual(j, a).is_some_and(|(f, sv)| is_rounding(f, &sv, opts))
+}
+
+/// The test of [`residual_is_rounding`] on a residual already computed.
+pub(crate) fn is_rounding(f: f64, sv: &StaticValues<f64>, opts: &StaticsOptions) -> bool {
+    let st = &sv.stress;
+    let terms = (st.k_ss.iter().chain(&st.k_thth).map(|k| k.abs()).sum::<f64>()) / (8.0 * std::f64::consts::PI)
+        + (st.pressure() - f).abs();
+    f.abs() <= opts.identically_static_tol * terms && terms > 0.0
+}
+
 /// Every static radius of the scenario's equation of state in [lo, hi], at the scenario's parameter values.
 pub fn find_static_radii(s: &Scenario, lo: f64, hi: f64, opts: &StaticsOptions) -> Result<StaticsReport> {
     let eos = s.shell.eos.as_ref().ok_or_else(|| {
         Error::input(format!("{}: the scenario has no equation of state", s.origin.label()))
             .with_hint("add [shell] pressure = \"...\" (e.g. \"w*sigma\"), or use `junctura derive` for beta^2 stability at a chosen radius")
     })?;
-    if s.shell.kind != ShellKind::Timelike {
+    let found = search(&s.model, s.params.values(), lo, hi, opts).map_err(|e| e.context(s.origin.label()))?;
+    Ok(StaticsReport {
+        scenario: s.name.clone(),
+        provenance: s.provenance(),
+        equation_of_state: eos.source().to_string(),
+        from: lo,
+        to: hi,
+        intervals: found.intervals,
+        neutral_intervals: found.neutral_intervals,
+        static_radii: found.static_radii,
+        poles_rejected: found.poles_rejected,
+        notes: found.notes,
+    })
+}
+
+/// Every static radius of the model's equation of state in [lo, hi] at the parameter values `params`.
+pub fn search(m: &Model, params: &[f64], lo: f64, hi: f64, opts: &StaticsOptions) -> Result<StaticSearch> {
+    if m.law.is_none() {
+        return Err(Error::input("the model has no equation of state"));
+    }
+    if m.kind != ShellKind::Timelike {
         return Err(Error::input("static radii with an equation of state need a timelike shell"));
     }
-    let params = s.params.values();
-    let (intervals, mut notes) = r_region_intervals(s, params, lo, hi, opts);
+    let cuts = range_cuts(m, params, lo, hi, opts);
+    let (intervals, mut notes, windows) = intervals_between(m, params, lo, hi, &cuts, opts);
     if intervals.is_empty() {
         // The same refusal as `derive` where the whole range is refused for the metric itself (a signature
         // change, or a keep the region contradicts), rather than an empty list.
         let mid = 0.5 * (lo + hi);
-        match admissible_at(s, params, mid) {
+        match admissible_at(m, params, mid) {
             Err(
                 why @ (admissible::Inadmissible::Signature { .. } | admissible::Inadmissible::KeepContradicts { .. }),
             ) => {
                 return Err(crate::junction::admissible_error(mid, why)
-                    .context(format!("{}: no static shell can sit anywhere in {lo} < r < {hi}", s.origin.label())));
+                    .context(format!("no static shell can sit anywhere in {lo} < r < {hi}")));
             }
             _ => notes.push(
                 "no part of the range has both sides in an R-region: no static timelike shell is possible".into(),
             ),
         }
     }
-    let j1: Junction<Dual64> = Junction::with_params(s, lift_params(params));
-    let j2: Junction<Dual2<f64, f64>> = Junction::with_params(s, lift_params(params));
-    let j0 = Junction::new(s);
+    let j1: Junction<Dual64> = Junction::with_params(m, lift_params(params));
+    let j2: Junction<Dual2<f64, f64>> = Junction::with_params(m, lift_params(params));
+    let j0 = Junction::with_params(m, params.to_vec());
     let f = |a: f64| residual(&j1, Dual64::new(a, 1.0)).map(|(v, _)| (v.re, v.eps));
     let fp = |a: f64| residual(&j2, Dual2::new(a, 1.0, 0.0)).map(|(v, _)| (v.v1, v.v2));
     let mut radii = Vec::new();
@@ -376,12 +474,26 @@ pub fn find_static_radii(s: &Scenario, lo: f64, hi: f64, opts: &StaticsOptions) 
         poles.extend(scan.poles.iter().map(|p| p.x).filter(|&x| !inside(x)));
         neutral.extend(nv.iter().copied());
         for r in scan.roots.into_iter().filter(|r| !inside(r.x)) {
-            if let Some(sr) = classify(s, &j0, r.x, r.kind == RootKind::Double, opts) {
+            if let Some(sr) = classify(&j0, r.x, r.kind == RootKind::Double, opts) {
                 radii.push(sr);
             }
         }
     }
-    for sr in &radii {
+    radius_notes(&radii, &poles, &mut notes);
+    Ok(StaticSearch {
+        intervals,
+        neutral_intervals: neutral,
+        static_radii: radii,
+        poles_rejected: poles,
+        notes,
+        cuts,
+        windows,
+    })
+}
+
+/// The notes on ill-conditioned radii (double roots, near a horizon, near a fold) and rejected poles.
+pub(crate) fn radius_notes(radii: &[StaticRadius], poles: &[f64], notes: &mut Vec<String>) {
+    for sr in radii {
         if sr.double_root {
             notes.push(format!("a0 = {:.10} is a double root (p0 - P(sigma0) touches zero without crossing): ill-conditioned, a small change of parameters splits or removes it", sr.radius));
         }
@@ -389,7 +501,7 @@ pub fn find_static_radii(s: &Scenario, lo: f64, hi: f64, opts: &StaticsOptions) 
             notes.push(format!("a0 = {:.10} is within a relative 1e-6 of a horizon: ill-conditioned", sr.radius));
         }
     }
-    for p in &poles {
+    for p in poles {
         notes.push(format!("p0 - P(sigma0) changes sign through a pole near a = {p:.8}: not a static radius"));
     }
     for w in radii.windows(2) {
@@ -400,16 +512,4 @@ pub fn find_static_radii(s: &Scenario, lo: f64, hi: f64, opts: &StaticsOptions) 
             ));
         }
     }
-    Ok(StaticsReport {
-        scenario: s.name.clone(),
-        provenance: s.provenance(),
-        equation_of_state: eos.source().to_string(),
-        from: lo,
-        to: hi,
-        intervals,
-        neutral_intervals: neutral,
-        static_radii: radii,
-        poles_rejected: poles,
-        notes,
-    })
 }

@@ -8,7 +8,7 @@
 //! predictor and a Newton corrector on [f = 0, t.(x - x_pred) = 0]; exact partials come from dual numbers. Each
 //! branch is reported where it crosses the requested lambda values, with its folds (turning points in lambda).
 
-use super::{find_static_radii, Stability, StaticsOptions};
+use super::{Stability, StaticsOptions};
 use crate::error::{Error, Result};
 use crate::junction::potential::Law;
 use crate::junction::Junction;
@@ -96,7 +96,7 @@ impl Ctx<'_> {
         for (slot, (da, dl)) in [(0usize, (1.0, 0.0)), (1usize, (0.0, 1.0))] {
             let mut p: Vec<Dual64> = self.s.params.values().iter().map(|&v| Dual64::from(v)).collect();
             p[self.k] = Dual64::new(l, dl);
-            let j = Junction::with_params(self.s, p);
+            let j = Junction::with_params(&self.s.model, p);
             let (f, _) = super::residual(&j, Dual64::new(a, da))?;
             val = f.re;
             g[slot] = f.eps;
@@ -261,9 +261,8 @@ pub fn sweep_with_progress(
     // Seeds: every static radius at every requested value.
     let mut seeds: Vec<(usize, [f64; 2])> = Vec::new();
     for (i, &l) in values.iter().enumerate() {
-        let mut sc = s.clone();
-        sc.params.set(name, l)?;
-        let rep = find_static_radii(&sc, a_lo, a_hi, opts)?;
+        let params = s.params.values_with(name, l)?;
+        let rep = super::search(&s.model, &params, a_lo, a_hi, opts).map_err(|e| e.context(s.origin.label()))?;
         for r in rep.static_radii {
             seeds.push((i, c.to_uv(r.radius, l)));
         }
@@ -324,9 +323,7 @@ pub fn sweep_with_progress(
         let points: Vec<BranchPoint> = points
             .into_iter()
             .filter_map(|(vi, a)| {
-                let mut sc = s.clone();
-                sc.params.set(name, values[vi]).ok()?;
-                let j = Junction::new(&sc);
+                let j = Junction::with_params(&s.model, s.params.values_with(name, values[vi]).ok()?);
                 let (_, sv) = super::residual(&j, a)?;
                 let ls = j.linear_stability(&sv).ok()?;
                 let v2 = j.potential_taylor(&sv, Law::Scenario)?[2];

@@ -66,7 +66,7 @@ fn eval(s: &Scenario, k: usize, a: f64, lam: f64, with_v2: bool) -> Option<([f64
     for (slot, (da, dl)) in [(1usize, (1.0, 0.0)), (2usize, (0.0, 1.0))] {
         let mut p: Vec<Dual64> = s.params.values().iter().map(|&v| Dual64::from(v)).collect();
         p[k] = Dual64::new(lam, dl);
-        let j = Junction::with_params(s, p);
+        let j = Junction::with_params(&s.model, p);
         let (f, sv) = residual(&j, Dual64::new(a, da))?;
         out_f[0] = f.re;
         out_f[slot] = f.eps;
@@ -81,9 +81,7 @@ fn eval(s: &Scenario, k: usize, a: f64, lam: f64, with_v2: bool) -> Option<([f64
 
 fn solution(s: &Scenario, k: usize, a: f64, lam: f64, opts: &StaticsOptions) -> Option<TuneSolution> {
     let (f, g) = eval(s, k, a, lam, true)?;
-    let mut sc = s.clone();
-    sc.params.set(&s.params.names()[k], lam).ok()?;
-    let j = Junction::new(&sc);
+    let j = Junction::with_params(&s.model, s.params.values_with(&s.params.names()[k], lam).ok()?);
     let (_, sv) = residual(&j, a)?;
     let ls = j.linear_stability(&sv).ok()?;
     // The one marginal rule (`stability::marginal_scale`), with the slope at its full size.

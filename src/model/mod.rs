@@ -1,0 +1,69 @@
+//! The physics model of a junction, free of the file format: both sides (metric functions, which part is kept,
+//! the sign of n^r), the shell kind, the spacetime dimension and the equation of state, with the parameters as
+//! names only. Values travel separately as a plain `&[f64]` (or a vector of dual numbers), so that a map or a
+//! sweep over a parameter builds the model once and changes only the vector.
+//!
+//! A `Scenario` (the validated file, with its source text, symbols and provenance) owns one `Model`; every
+//! physics function takes `(model, parameter values, options)`.
+//!
+//! Extension points: a metric side is a [`MetricSide`] (today [`ExprSide`]: A and B typed as expressions), an
+//! equation of state an [`EquationOfState`] (today [`ExprLaw`]). A tabulated or numerical metric is one new
+//! `MetricSide` impl and one variant of [`Metric`]; the same for a law and [`Eos`].
+
+mod law;
+mod side;
+
+pub use law::{Eos, EquationOfState, ExprLaw};
+pub use side::{ExprSide, Metric, MetricSide};
+
+use crate::scenario::{Keep, ShellKind, Which};
+
+/// One side of the shell as the physics sees it.
+#[derive(Debug, Clone)]
+pub struct SideModel {
+    /// Minus (the normal points away from it) or plus (the normal points into it).
+    pub which: Which,
+    /// A(r) and B(r).
+    pub metric: Metric,
+    /// Which part of the spacetime is kept.
+    pub keep: Keep,
+    /// The sign nu of n^r on this side (`scenario::Side::normal_sign`).
+    pub normal_sign: f64,
+}
+
+/// A junction model: two sides, the shell, the dimension and the parameter names.
+#[derive(Debug, Clone)]
+pub struct Model {
+    /// Spacetime dimension D >= 4.
+    pub dimension: u32,
+    /// Timelike or spacelike shell.
+    pub kind: ShellKind,
+    /// The side the normal points away from.
+    pub minus: SideModel,
+    /// The side the normal points into.
+    pub plus: SideModel,
+    /// The equation of state p(sigma), if any.
+    pub law: Option<Eos>,
+    /// Parameter names, in the order of the value vectors.
+    pub names: Vec<String>,
+}
+
+impl Model {
+    /// The side `which`.
+    pub fn side(&self, which: Which) -> &SideModel {
+        match which {
+            Which::Minus => &self.minus,
+            Which::Plus => &self.plus,
+        }
+    }
+
+    /// The index of parameter `name` in the value vectors.
+    pub fn index(&self, name: &str) -> Option<usize> {
+        self.names.iter().position(|n| n == name)
+    }
+
+    /// eps = n.n: +1 for a timelike shell, -1 for a spacelike one.
+    pub fn eps(&self) -> f64 {
+        self.kind.eps()
+    }
+}

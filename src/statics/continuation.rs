@@ -1,0 +1,128 @@
+//! Static radii at a parameter point from those of a neighbouring point, for maps over two parameters.
+//!
+//! The full search ([`super::search`]) samples the range densely for horizons and for roots of
+//! f(a) = p0(a) - P(sigma0(a)). Next to a point already searched, the structure is known: how many horizons each
+//! side has and how many static radii lie between them. [`continue_search`] samples coarsely, refines every sign
+//! change with the same safeguarded Newton-bisection as the full search (`roots::refine`), and accepts the result
+//! only if it reproduces the neighbour's structure exactly: the same number of simple horizons per side, the
+//! same number of static radii in each window between cuts, none of them double, near a horizon or next to a pole,
+//! and no sample where the static condition holds identically. Anything else returns `None`, and the caller runs
+//! the full search. Structure that appears between two coarse samples and nowhere else (a pair of static radii
+//! closer than the coarse spacing, born between two neighbouring cells) is found once it has grown to the
+//! spacing, or at the next full search (the first cell of every line).
+
+use super::{
+    classify, intervals_between, is_rounding, radius_notes, residual, Cut, CutKind, StaticSearch, StaticsOptions,
+};
+use crate::junction::Junction;
+use crate::metric::SideFns;
+use crate::model::{MetricSide, Model};
+use crate::roots::{refine, sample_points};
+use crate::scenario::Which;
+use num_dual::Dual64;
+
+/// Samples over the whole range for horizons, and over each searched interval for static radii.
+pub const COARSE_SAMPLES: usize = 48;
+
+/// The static radii at `params`, predicted by `prev` (the search at a neighbouring point of the same range) and
+/// confirmed by a coarse search; `None` where the structure changed or cannot be confirmed cheaply.
+pub fn continue_search(
+    m: &Model,
+    params: &[f64],
+    prev: &StaticSearch,
+    lo: f64,
+    hi: f64,
+    opts: &StaticsOptions,
+) -> Option<StaticSearch> {
+    let plain = prev.neutral_intervals.is_empty()
+        && prev.cuts.iter().all(|c| c.kind == CutKind::Horizon)
+        && prev.static_radii.iter().all(|r| !r.double_root && !r.near_horizon)
+        && [&m.minus, &m.plus].iter().all(|s| s.metric.b_is_a());
+    if !plain {
+        return None;
+    }
+    let mut cuts = Vec::new();
+    for w in [Which::Minus, Which::Plus] {
+        let fns = SideFns::of(m.side(w), params);
+        let value = |r: f64| Some(fns.b(r));
+        let b = |r: f64| {
+            let d: Dual64 = fns.b(Dual64::new(r, 1.0));
+            Some((d.re, d.eps))
+        };
+        let (found, poles) = sign_changes(&value, &b, &sample_points(lo, hi, COARSE_SAMPLES), opts)?;
+        if !poles.is_empty() || found.len() != prev.cuts.iter().filter(|c| c.side == w).count() {
+            return None;
+        }
+        cuts.extend(found.into_iter().map(|radius| Cut { radius, side: w, kind: CutKind::Horizon }));
+    }
+    let (intervals, mut notes, windows) = intervals_between(m, params, lo, hi, &cuts, opts);
+    if windows != prev.windows {
+        return None;
+    }
+    let j0 = Junction::with_params(m, params.to_vec());
+    let j1: Junction<Dual64> = Junction::with_params(m, super::lift_params(params));
+    let f = |a: f64| residual(&j1, Dual64::new(a, 1.0)).map(|(v, _)| (v.re, v.eps));
+    let mut radii = Vec::new();
+    let mut poles = Vec::new();
+    for (iv, old) in intervals.iter().zip(&prev.intervals) {
+        let xs = sample_points(iv.from, iv.to, COARSE_SAMPLES);
+        // One plain evaluation per sample serves the sign scan and the test for a neutral family.
+        let neutral = std::cell::Cell::new(false);
+        let value = |a: f64| {
+            let (v, sv) = residual(&j0, a)?;
+            neutral.set(neutral.get() || is_rounding(v, &sv, opts));
+            Some(v)
+        };
+        let (roots, new_poles) = sign_changes(&value, &f, &xs, opts)?;
+        if neutral.get() {
+            return None;
+        }
+        let inside = |r: f64| r >= old.from && r <= old.to;
+        let before = prev.static_radii.iter().filter(|r| inside(r.radius)).count();
+        let poles_before = prev.poles_rejected.iter().filter(|&&p| inside(p)).count();
+        if roots.len() != before || new_poles.len() != poles_before {
+            return None;
+        }
+        for a in roots {
+            radii.push(classify(&j0, a, false, opts).filter(|r| !r.near_horizon)?);
+        }
+        poles.extend(new_poles);
+    }
+    radius_notes(&radii, &poles, &mut notes);
+    Some(StaticSearch {
+        intervals,
+        neutral_intervals: vec![],
+        static_radii: radii,
+        poles_rejected: poles,
+        notes,
+        cuts,
+        windows,
+    })
+}
+
+/// Every sign change of `value` between consecutive samples `xs`, refined to a root of `f` (value and
+/// derivative) and sorted into roots and poles (a sign change where |f| does not drop below its end values);
+/// `None` if the function is undefined at a sample or vanishes exactly at one.
+fn sign_changes<V, F>(value: &V, f: &F, xs: &[f64], opts: &StaticsOptions) -> Option<(Vec<f64>, Vec<f64>)>
+where
+    V: Fn(f64) -> Option<f64>,
+    F: Fn(f64) -> Option<(f64, f64)>,
+{
+    let vs: Vec<f64> = xs.iter().map(|&x| value(x)).collect::<Option<_>>()?;
+    if vs.iter().any(|&v| v == 0.0 || !v.is_finite()) {
+        return None;
+    }
+    let (mut roots, mut poles) = (Vec::new(), Vec::new());
+    for k in 0..xs.len() - 1 {
+        if vs[k].signum() != vs[k + 1].signum() {
+            let x = refine(f, xs[k], xs[k + 1], &opts.roots)?;
+            let (v, _) = f(x)?;
+            if v.abs() > vs[k].abs().min(vs[k + 1].abs()) {
+                poles.push(x);
+            } else {
+                roots.push(x);
+            }
+        }
+    }
+    Some((roots, poles))
+}

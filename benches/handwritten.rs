@@ -57,7 +57,7 @@ fn hand_loop(r_lo: f64, lines: std::ops::Range<usize>) -> Summary {
             let k = (2.0 * f - a * f1) * ia * ia;
             let c0 = f2 - f1 * f1 / (2.0 * f) - k;
             let c1 = -2.0 * k;
-            let (_, class) = classify_v2(c0, c1, BETA2);
+            let (_, class) = classify_v2(c0, c1, BETA2, a);
             acc.add(class, energy_bits(EnergyConditions::evaluate(sigma, p, 4)));
         }
     }

@@ -170,3 +170,17 @@ fn demo_runs_and_its_pdfs_render() {
         .any(|e| e.file_name().to_string_lossy().starts_with("page"));
     assert!(page, "pdftoppm wrote no page");
 }
+
+/// Dust (p = 0) with flat space inside and extremal Reissner-Nordstrom outside, B = (1 - m/r)^2: p0 = 0 at every
+/// radius, so every radius is static and V'' = 0 identically (neutral; the same family `statics` reports as a
+/// neutral interval; common practice: the extremal charged dust shell is in equilibrium at any radius). Regression:
+/// the map's marginal rule lacked the 1/a0^2 term of the statics rule and called rounding noise stable or
+/// unstable (13 of these 60 cells were marginal).
+#[test]
+fn map_calls_the_neutral_extremal_dust_family_marginal_everywhere() {
+    let p = root().join("scenarios/extremal-charged-dust.toml");
+    let out = ok(&["map", p.to_str().unwrap(), "--x", "radius:1.5:10:15", "--y", "m:1:1.3:4", "--summary"]);
+    let v: serde_json::Value = serde_json::from_str(&out).unwrap();
+    assert_eq!(v["cells"], 60);
+    assert_eq!(v["marginal_cells"], 60, "{out}");
+}

@@ -58,7 +58,14 @@ pub const MARGINAL_TOL: f64 = 1e-8;
 /// varying on the scale a0 (common practice). Without the last term a law whose static condition holds
 /// identically (V'' = 0 exactly, c0 and c1 beta^2 round-off) would be called stable or unstable at random.
 pub fn marginal_scale(ls: &LinearStability, beta2: f64, a0: f64) -> f64 {
-    ls.v2_at_beta2_zero.abs() + (ls.v2_slope * beta2).abs() + 1.0 / (a0 * a0)
+    marginal_scale_of(ls.v2_at_beta2_zero, ls.v2_slope * beta2, a0)
+}
+
+/// [`marginal_scale`] from the two terms c0 and c1 beta^2 of V''(a0) (maps hold the coefficients, not a
+/// [`LinearStability`]).
+#[inline]
+pub fn marginal_scale_of(c0: f64, c1_beta2: f64, a0: f64) -> f64 {
+    c0.abs() + c1_beta2.abs() + 1.0 / (a0 * a0)
 }
 
 /// Relative size of c1 below which V'' is taken as independent of beta^2.

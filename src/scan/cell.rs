@@ -156,11 +156,12 @@ pub(crate) fn static_point(j: &Junction<f64>, a: f64) -> std::result::Result<(f6
     Ok((sigma, p, c0, c1))
 }
 
-/// Classify V'' = c0 + c1 beta^2.
+/// Classify V'' = c0 + c1 beta^2 at a static radius a0 with the one marginal rule of statics
+/// ([`crate::junction::stability::marginal_scale_of`]: |V''| <= 1e-8 (|c0| + |c1 beta^2| + 1/a0^2) is marginal).
 #[inline]
-pub fn classify_v2(c0: f64, c1: f64, beta2: f64) -> (f64, CellClass) {
+pub fn classify_v2(c0: f64, c1: f64, beta2: f64, a0: f64) -> (f64, CellClass) {
     let v2 = c0 + c1 * beta2;
-    let scale = c0.abs() + (c1 * beta2).abs();
+    let scale = crate::junction::stability::marginal_scale_of(c0, c1 * beta2, a0);
     let class = if v2.abs() <= MARGINAL_TOL * scale {
         CellClass::Marginal
     } else if v2 > 0.0 {
@@ -385,7 +386,7 @@ impl<'a> Evaluator<'a> {
         bits: u8,
     ) -> Cell {
         let (sigma, p, c0, c1) = v;
-        let (v2, class) = classify_v2(c0, c1, beta2);
+        let (v2, class) = classify_v2(c0, c1, beta2, radius);
         let crit =
             if c1.abs() > crate::junction::stability::SLOPE_TOL * c0.abs().max(c1.abs()) { -c0 / c1 } else { f64::NAN };
         Cell {

@@ -5,6 +5,9 @@ use junctura::export::Item;
 use junctura::survey::survey;
 use junctura::Result;
 
+/// The formats of `check`.
+const FORMATS: &[Format] = &[Format::Text, Format::Json, Format::Latex, Format::Csv];
+
 /// Arguments of `check`.
 #[derive(clap::Args, Debug)]
 pub struct Args {
@@ -13,7 +16,7 @@ pub struct Args {
     #[command(flatten)]
     range: RangeArgs,
     /// Output format (latex: the text summary, the survey has no formulas).
-    #[arg(long, default_value = "text", value_parser = formats(&[Format::Text, Format::Json, Format::Latex, Format::Csv]))]
+    #[arg(long, default_value = "text", value_parser = formats(FORMATS))]
     format: Format,
 }
 

@@ -25,6 +25,9 @@ pub enum Numbering {
     Off,
 }
 
+/// The formats of `closed-form`.
+const FORMATS: &[Format] = &[Format::Text, Format::Latex, Format::Sympy, Format::Json];
+
 /// Arguments of `closed-form`.
 #[derive(clap::Args, Debug)]
 pub struct Args {
@@ -32,7 +35,7 @@ pub struct Args {
     scenario: ScenarioArgs,
     /// Output format: text (one `lhs = rhs` line per quantity), latex (an amsmath `align` block laid out for
     /// `--width`), sympy, or json (every quantity in every form).
-    #[arg(long, default_value = "text", value_parser = formats(&[Format::Text, Format::Latex, Format::Sympy, Format::Json]))]
+    #[arg(long, default_value = "text", value_parser = formats(FORMATS))]
     format: Format,
     /// LaTeX text width: `column` (8.5 cm), `page` (17 cm) or a width in centimetres (e.g. `12.5`).
     #[arg(long, default_value = "column")]

@@ -7,6 +7,9 @@ use junctura::output::warn;
 use junctura::report::derive::{derive, State};
 use junctura::{Error, Result};
 
+/// The formats of `derive`.
+const FORMATS: &[Format] = &[Format::Text, Format::Json, Format::Latex, Format::Csv, Format::Markdown];
+
 /// Arguments of `derive`.
 #[derive(clap::Args, Debug)]
 pub struct Args {
@@ -22,7 +25,7 @@ pub struct Args {
     #[arg(long, default_value_t = 0.0, allow_negative_numbers = true)]
     acceleration: f64,
     /// Output format.
-    #[arg(long, default_value = "text", value_parser = formats(&[Format::Text, Format::Json, Format::Latex, Format::Csv, Format::Markdown]))]
+    #[arg(long, default_value = "text", value_parser = formats(FORMATS))]
     format: Format,
     /// With --format latex: text width of the closed forms, `column` (8.5 cm), `page` (17 cm) or cm.
     #[arg(long, default_value = "column")]

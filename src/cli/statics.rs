@@ -8,6 +8,9 @@ use junctura::statics::tune::{tune_at_radius, tune_marginal};
 use junctura::statics::{find_static_radii, StaticsOptions};
 use junctura::{Error, Result};
 
+/// The formats of `statics`.
+const STATICS_FORMATS: &[Format] = &[Format::Text, Format::Json, Format::Csv, Format::Markdown];
+
 /// The formats of `tune`, `sweep` and `evolve`.
 pub const TABLE_FORMATS: &[Format] = &[Format::Text, Format::Json, Format::Csv];
 
@@ -19,7 +22,7 @@ pub struct StaticsArgs {
     #[command(flatten)]
     range: RangeArgs,
     /// Output format (markdown: a table for notes).
-    #[arg(long, default_value = "text", value_parser = formats(&[Format::Text, Format::Json, Format::Csv, Format::Markdown]))]
+    #[arg(long, default_value = "text", value_parser = formats(STATICS_FORMATS))]
     format: Format,
 }
 

@@ -2,7 +2,9 @@
 //! Run with `cargo bench --bench closed_form`; never part of the test run.
 
 use criterion::{criterion_group, criterion_main, Criterion};
-use junctura::export::closed::{latex, text, LatexLayout};
+use junctura::export::closed::LatexLayout;
+use junctura::export::latex::closed as latex;
+use junctura::export::text::closed as text;
 use junctura::junction::closed::{closed_forms, ClosedState};
 use junctura::scenario::Scenario;
 

@@ -32,6 +32,7 @@ pub mod dynamics;
 pub mod error;
 pub mod export;
 pub mod expr;
+pub mod files;
 pub mod geodesic;
 pub mod input;
 pub mod junction;

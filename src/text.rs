@@ -18,6 +18,16 @@ pub fn unsafe_char(s: &str) -> Option<(usize, char)> {
     s.char_indices().find(|&(_, c)| is_unsafe(c))
 }
 
+/// A number as every output prints it: full f64 precision (shortest round-trip form), NaN and infinities
+/// spelled out (`NaN`, `inf`, `-inf`).
+pub fn num(x: f64) -> String {
+    if x.is_finite() {
+        format!("{x:?}")
+    } else {
+        format!("{x}")
+    }
+}
+
 /// `s` with every unsafe character written as a visible escape (`\n`, `\r`, `\t`, else `\u{1b}`), so the
 /// result is one line of printable text.
 pub fn one_line(s: &str) -> Cow<'_, str> {

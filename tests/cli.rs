@@ -323,3 +323,29 @@ fn evolve_refuses_a_radius_that_is_not_static() {
         &["timelike"],
     );
 }
+
+#[test]
+fn statics_and_derive_print_markdown_tables_and_other_commands_refuse_markdown() {
+    let p = root().join("scenarios/gravastar-linear.toml");
+    let p = p.to_str().unwrap();
+    let run = |args: &[&str]| {
+        let out = bin().args(args).output().unwrap();
+        assert!(out.status.success(), "{args:?}: {}", String::from_utf8_lossy(&out.stderr));
+        String::from_utf8(out.stdout).unwrap()
+    };
+    // The same static radii as the JSON, one table row each (header and delimiter rows first).
+    let st = run_json(&["statics", p, "--format", "json"]);
+    let md = run(&["statics", p, "--format", "markdown"]);
+    let rows: Vec<&str> = md.lines().filter(|l| l.starts_with('|')).collect();
+    let radii = st["static_radii"].as_array().unwrap();
+    assert_eq!(rows.len(), 2 + radii.len(), "{md}");
+    for (row, r) in rows[2..].iter().zip(radii) {
+        let a0: f64 = row.split('|').nth(2).unwrap().trim().parse().unwrap();
+        let want = r["radius"].as_f64().unwrap();
+        assert!((a0 - want).abs() <= 1e-5 * want, "{row} vs {want}");
+    }
+    let md = run(&["derive", p, "--radius", "3.0638", "--format", "markdown"]);
+    assert!(md.contains("| quantity | value | unit |") && md.contains("| surface energy density sigma |"), "{md}");
+    fails_with(&["sweep", p, "--vary", "w:0.3:1.2:3", "--format", "markdown"], 2, &["markdown"]);
+    fails_with(&["statics", p, "--format", "sympy"], 2, &["sympy", "possible values: text, json, csv, markdown"]);
+}

@@ -333,8 +333,8 @@ fn no_floats_in_closed_forms() {
 #[test]
 fn closed_forms_are_deterministic() {
     let s = load("gravastar-chaplygin.toml");
-    let a = junctura::export::closed::text(&closed_forms(&s, ClosedState::Static).unwrap(), &s.symbols, "p");
-    let b = junctura::export::closed::text(&closed_forms(&s, ClosedState::Static).unwrap(), &s.symbols, "p");
+    let a = junctura::export::text::closed(&closed_forms(&s, ClosedState::Static).unwrap(), &s.symbols, "p");
+    let b = junctura::export::text::closed(&closed_forms(&s, ClosedState::Static).unwrap(), &s.symbols, "p");
     assert_eq!(a, b);
 }
 

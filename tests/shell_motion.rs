@@ -247,9 +247,9 @@ keep = "outer"
     let want = -(1.0 + v * v).sqrt() * k / (4.0 * std::f64::consts::PI * (1.0 + k * r * r));
     let xi = rep.flux_term.expect("flux term of a moving state");
     assert!(rel(xi, want) < 1e-12, "{xi} vs {want}");
-    let csv = junctura::export::derive::csv(&rep);
+    let csv = junctura::export::csv::derive(&rep);
     assert!(csv.lines().nth(1).unwrap().ends_with(",flux_term [1/M^2]"), "{csv}");
-    assert!(junctura::export::derive::text(&rep).contains("flux term Xi"));
+    assert!(junctura::export::text::derive(&rep).contains("flux term Xi"));
 }
 
 /// The command line carries the same run: `--sigma S --direction inward` on the charged-dust scenario lists the

@@ -213,10 +213,10 @@ impl Model {
         let cf = py.detach(|| closed_forms(s, state).map_err(|e| e.context(s.origin.label()))).py(py)?;
         let prov = s.provenance();
         let layout = render::LatexLayout { width_pt, numbered };
-        let mut v = render::json(&cf, &s.symbols, &prov);
-        v["text"] = render::text(&cf, &s.symbols, &prov).into();
-        v["sympy"] = render::sympy(&cf, &s.symbols, &prov).into();
-        v["latex"] = render::latex(&cf, &s.symbols, &layout, &prov).into();
+        let mut v = junctura::export::json::closed(&cf, &s.symbols, &prov);
+        v["text"] = junctura::export::text::closed(&cf, &s.symbols, &prov).into();
+        v["sympy"] = junctura::export::sympy::closed(&cf, &s.symbols, &prov).into();
+        v["latex"] = junctura::export::latex::closed(&cf, &s.symbols, &layout, &prov).into();
         bundle(py, &v, vec![])
     }
 
@@ -288,8 +288,7 @@ impl Model {
         }
         .py(py)?;
         // The same object as the command-line JSON (solutions keyed by the solved parameter's name).
-        let v: serde_json::Value = serde_json::from_str(&junctura::export::statics::tune_json(&r))
-            .map_err(|e| pyo3::exceptions::PyRuntimeError::new_err(e.to_string()))?;
+        let v = junctura::export::json::tune(&r);
         bundle(py, &v, vec![])
     }
 
@@ -551,7 +550,7 @@ pub fn chain<'py>(
             .collect();
     let d = PyDict::new(py);
     d.set_item("result", to_object(py, &r)?)?;
-    d.set_item("csv", junctura::geodesic::chain_csv(&r.run, &r.provenance, r.unit.as_ref()))?;
+    d.set_item("csv", junctura::export::csv::chain(&r.run, &r.provenance, r.unit.as_ref()))?;
     let f = PyDict::new(py);
     for (name, fig) in figs {
         f.set_item(&name, Py::new(py, Figure::new(&name, fig))?)?;

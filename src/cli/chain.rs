@@ -1,22 +1,11 @@
 //! `junctura chain`: iterate the crossing map over a chain of shells and report the orbit after each crossing.
 
-use super::common::to_json;
-use clap::ValueEnum;
-use junctura::geodesic::{chain_csv, chain_report, Chain, ChainReport};
-use junctura::output::{ensure_dir, print_stdout, warn, write_atomic};
+use super::common::{formats, print, Format};
+use junctura::export::{self, Item};
+use junctura::geodesic::{chain_report, Chain};
+use junctura::output::{ensure_dir, warn, write_atomic};
 use junctura::Result;
 use std::path::PathBuf;
-
-/// Output format of `chain`.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
-pub enum ChainFormat {
-    /// Readable table.
-    Text,
-    /// One JSON object.
-    Json,
-    /// CSV table (provenance comment, header with units).
-    Csv,
-}
 
 /// Arguments of `chain`.
 #[derive(clap::Args, Debug)]
@@ -34,8 +23,8 @@ pub struct Args {
     #[arg(long)]
     within: Option<String>,
     /// Output format on stdout.
-    #[arg(long, value_enum, default_value_t = ChainFormat::Text)]
-    format: ChainFormat,
+    #[arg(long, default_value = "text", value_parser = formats(&[Format::Text, Format::Json, Format::Csv]))]
+    format: Format,
     /// Also write <name>.csv, <name>.json and the figures into this folder.
     #[arg(long)]
     out: Option<PathBuf>,
@@ -52,8 +41,8 @@ pub fn run(args: Args) -> Result<()> {
         warn(w);
     }
     let (unit, threshold, provenance) = (report.unit, report.run.threshold, report.provenance.clone());
-    let csv = chain_csv(&report.run, &provenance, unit.as_ref());
-    let json = to_json(&report);
+    let csv = export::csv::chain(&report.run, &provenance, unit.as_ref());
+    let json = export::json::pretty(&report);
     if let Some(dir) = &args.out {
         ensure_dir(dir)?;
         let stem = args.file.file_stem().map(|s| s.to_string_lossy().to_string()).unwrap_or_else(|| "chain".into());
@@ -76,60 +65,5 @@ pub fn run(args: Args) -> Result<()> {
             }
         }
     }
-    match args.format {
-        ChainFormat::Json => print_stdout(&json),
-        ChainFormat::Csv => junctura::output::print_csv(&csv)?,
-        ChainFormat::Text => print_stdout(&text(&report, unit.is_some())),
-    }
-    Ok(())
-}
-
-fn e(v: Option<f64>) -> String {
-    v.map(|x| format!("{x:.6e}")).unwrap_or_else(|| "-".into())
-}
-
-fn text(r: &ChainReport, si: bool) -> String {
-    let mut o = format!("chain: {}\n{}\n", junctura::text::one_line(&r.chain), junctura::text::one_line(&r.provenance));
-    if let Some(l) = r.length_unit_m {
-        o.push_str(&format!("lengths in units of G M/c^2 = {l:.9e} m (and in m)\n"));
-    }
-    o.push_str(&format!(
-        "\n{:>6} {:>5} {:>13} {:>13} {:>13} {:>13}",
-        "cross", "stage", "E_plus", "r_max-r_h", "proper", "Lorentz"
-    ));
-    if si {
-        o.push_str(&format!(" {:>13} {:>13}", "r_max-r_h[m]", "proper[m]"));
-    }
-    o.push('\n');
-    for row in &r.rows {
-        let a = row.row.apex;
-        o.push_str(&format!(
-            "{:>6} {:>5} {:>13} {:>13} {:>13} {:>13}",
-            row.row.crossing,
-            row.row.stage,
-            e(row.row.energy_plus),
-            e(a.and_then(|a| a.areal_distance)),
-            e(a.and_then(|a| a.proper_distance)),
-            e(row.row.relative_lorentz_factor)
-        ));
-        if si {
-            o.push_str(&format!(" {:>13} {:>13}", e(row.areal_distance_m), e(row.proper_distance_m)));
-        }
-        if row.row.status != "bounded" {
-            o.push_str(&format!("  {}", row.row.status));
-        }
-        o.push('\n');
-    }
-    if let Some(t) = r.threshold {
-        let tm = r.threshold_m.map(|m| format!(" = {m:.6e} m")).unwrap_or_default();
-        let say = |v: Option<usize>| {
-            v.map(|k| format!("after crossing {k}")).unwrap_or_else(|| "not within these crossings".into())
-        };
-        o.push_str(&format!(
-            "\nwithin {t:.6e} M{tm} of the horizon: areal {}, proper {}\n",
-            say(r.first_within_areal),
-            say(r.first_within_proper)
-        ));
-    }
-    o
+    print(args.format, &Item::Chain(&report))
 }

@@ -1,24 +1,11 @@
 //! `junctura closed-form`: exact, simplified closed forms of the junction quantities in the scenario's metric.
 
-use super::common::ScenarioArgs;
+use super::common::{formats, print, Format, ScenarioArgs};
 use clap::ValueEnum;
-use junctura::export::closed::{self, parse_width, LatexLayout};
+use junctura::export::closed::{parse_width, LatexLayout};
+use junctura::export::Item;
 use junctura::junction::closed::{closed_forms, ClosedState};
-use junctura::output::print_stdout;
 use junctura::Result;
-
-/// Output format of `closed-form`.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
-pub enum ClosedFormat {
-    /// One `lhs = rhs` line per quantity, in junctura's expression syntax.
-    Text,
-    /// An amsmath `align` block laid out for `--width`.
-    Latex,
-    /// A Python/SymPy snippet: symbols declared, one assignment per quantity.
-    Sympy,
-    /// Every quantity in every form.
-    Json,
-}
 
 /// Shell state of `closed-form`.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
@@ -38,14 +25,18 @@ pub enum Numbering {
     Off,
 }
 
+/// The formats of `closed-form`.
+const FORMATS: &[Format] = &[Format::Text, Format::Latex, Format::Sympy, Format::Json];
+
 /// Arguments of `closed-form`.
 #[derive(clap::Args, Debug)]
 pub struct Args {
     #[command(flatten)]
     scenario: ScenarioArgs,
-    /// Output format.
-    #[arg(long, value_enum, default_value_t = ClosedFormat::Text)]
-    format: ClosedFormat,
+    /// Output format: text (one `lhs = rhs` line per quantity), latex (an amsmath `align` block laid out for
+    /// `--width`), sympy, or json (every quantity in every form).
+    #[arg(long, default_value = "text", value_parser = formats(FORMATS))]
+    format: Format,
     /// LaTeX text width: `column` (8.5 cm), `page` (17 cm) or a width in centimetres (e.g. `12.5`).
     #[arg(long, default_value = "column")]
     width: String,
@@ -66,17 +57,6 @@ pub fn run(args: Args) -> Result<()> {
     };
     let cf = closed_forms(&s, state).map_err(|e| e.context(s.origin.label()))?;
     let prov = s.provenance();
-    let out = match args.format {
-        ClosedFormat::Text => closed::text(&cf, &s.symbols, &prov),
-        ClosedFormat::Sympy => closed::sympy(&cf, &s.symbols, &prov),
-        ClosedFormat::Json => {
-            serde_json::to_string_pretty(&closed::json(&cf, &s.symbols, &prov)).unwrap_or_default() + "\n"
-        }
-        ClosedFormat::Latex => {
-            let layout = LatexLayout { width_pt, numbered: args.numbering == Numbering::On };
-            closed::latex(&cf, &s.symbols, &layout, &prov)
-        }
-    };
-    print_stdout(&out);
-    Ok(())
+    let layout = LatexLayout { width_pt, numbered: args.numbering == Numbering::On };
+    print(args.format, &Item::ClosedForms { forms: &cf, symbols: &s.symbols, provenance: &prov, layout })
 }

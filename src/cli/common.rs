@@ -1,23 +1,30 @@
 //! Options and helpers shared by several commands.
 
-use clap::{Args, ValueEnum};
+use clap::Args;
 use junctura::scenario::Scenario;
 use junctura::Result;
 use std::path::PathBuf;
 
 pub use junctura::request::{parse_axis, parse_pair, range};
 
-/// Output format of a command.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
-pub enum Format {
-    /// Readable summary.
-    Text,
-    /// One JSON object on stdout.
-    Json,
-    /// LaTeX (where the command has formulas).
-    Latex,
-    /// CSV: a provenance comment line, a header line with units, one row per point.
-    Csv,
+pub use junctura::export::Format;
+
+/// The `--format` values a command offers (in this order in `--help`), as a clap value parser.
+pub fn formats(offered: &'static [Format]) -> impl clap::builder::TypedValueParser<Value = Format> {
+    use clap::builder::{PossibleValue, PossibleValuesParser, TypedValueParser};
+    PossibleValuesParser::new(offered.iter().map(|f| PossibleValue::new(f.name()).help(f.help())))
+        .map(move |name| Format::parse(&name).unwrap_or(offered[0]))
+}
+
+/// Render `item` in `format` and print it on stdout: CSV through the last check (no non-finite number).
+pub fn print(format: Format, item: &junctura::export::Item<'_>) -> Result<()> {
+    let out = junctura::export::render(format, item)?;
+    if format == Format::Csv {
+        junctura::output::print_csv(&out)
+    } else {
+        junctura::output::print_stdout(&out);
+        Ok(())
+    }
 }
 
 /// The scenario file and parameter overrides.
@@ -55,11 +62,6 @@ impl RangeArgs {
     pub fn resolve(&self, s: &Scenario) -> Result<(f64, f64)> {
         range(self.from, self.to, junctura::metric::default_range(s))
     }
-}
-
-/// Serialize to pretty JSON (never fails for our plain structs).
-pub fn to_json<T: serde::Serialize>(v: &T) -> String {
-    serde_json::to_string_pretty(v).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"))
 }
 
 /// Figure control shared by the commands that write figures.

@@ -1,10 +1,14 @@
 //! `junctura derive`: junction quantities, potential and stability at one shell state.
 
-use super::common::{to_json, Format, ScenarioArgs};
-use junctura::export::derive::{latex, text};
-use junctura::output::{print_stdout, warn};
+use super::common::{formats, print, Format, ScenarioArgs};
+use junctura::export::closed::{parse_width, LatexLayout};
+use junctura::export::Item;
+use junctura::output::warn;
 use junctura::report::derive::{derive, State};
 use junctura::{Error, Result};
+
+/// The formats of `derive`.
+const FORMATS: &[Format] = &[Format::Text, Format::Json, Format::Latex, Format::Csv, Format::Markdown];
 
 /// Arguments of `derive`.
 #[derive(clap::Args, Debug)]
@@ -21,7 +25,7 @@ pub struct Args {
     #[arg(long, default_value_t = 0.0, allow_negative_numbers = true)]
     acceleration: f64,
     /// Output format.
-    #[arg(long, value_enum, default_value_t = Format::Text)]
+    #[arg(long, default_value = "text", value_parser = formats(FORMATS))]
     format: Format,
     /// With --format latex: text width of the closed forms, `column` (8.5 cm), `page` (17 cm) or cm.
     #[arg(long, default_value = "column")]
@@ -41,25 +45,16 @@ pub fn run(args: Args) -> Result<()> {
     }
     let state = State { radius: args.radius, velocity: args.velocity, acceleration: args.acceleration };
     let rep = derive(&s, state).map_err(|e| e.context(s.origin.label()))?;
-    match args.format {
-        Format::Json => {
-            for w in &rep.warnings {
-                warn(w);
-            }
-            print_stdout(&to_json(&rep))
-        }
-        Format::Text => print_stdout(&text(&rep)),
-        Format::Csv => junctura::output::print_csv(&junctura::export::derive::csv(&rep))?,
-        Format::Latex => {
-            for w in &rep.warnings {
-                warn(w);
-            }
-            let layout = junctura::export::closed::LatexLayout {
-                width_pt: junctura::export::closed::parse_width(&args.width)?,
-                numbered: args.numbering == super::closed::Numbering::On,
-            };
-            print_stdout(&latex(&rep, &s, &layout))
+    // The text and Markdown forms show the warnings; the others leave them to stderr.
+    if !matches!(args.format, Format::Text | Format::Markdown) {
+        for w in &rep.warnings {
+            warn(w);
         }
     }
-    Ok(())
+    let layout = if args.format == Format::Latex {
+        LatexLayout { width_pt: parse_width(&args.width)?, numbered: args.numbering == super::closed::Numbering::On }
+    } else {
+        LatexLayout::default()
+    };
+    print(args.format, &Item::Derive { report: &rep, scenario: &s, layout })
 }

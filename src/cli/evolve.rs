@@ -1,11 +1,11 @@
 //! `junctura evolve`: the nonlinear motion of a shell from any initial data or from a static radius.
 
-use super::common::ScenarioArgs;
-use super::statics::Fmt;
+use super::common::{formats, print, Format, ScenarioArgs};
+use super::statics::TABLE_FORMATS;
 use junctura::dynamics::{evolve, EvolveOptions, Start};
-use junctura::export::evolve as ex;
+use junctura::export::{self, Item};
 use junctura::junction::Junction;
-use junctura::output::{ensure_dir, print_stdout, warn, write_atomic};
+use junctura::output::{ensure_dir, warn, write_atomic};
 use junctura::plot::write_figure;
 use junctura::report::evolve::{phase_figure, radius_figure};
 use junctura::{Error, Result};
@@ -53,8 +53,8 @@ pub struct EvolveArgs {
     #[arg(long, allow_negative_numbers = true, value_name = "S", requires = "ensemble")]
     spread: Option<f64>,
     /// Output format on stdout.
-    #[arg(long, value_enum, default_value_t = Fmt::Text)]
-    format: Fmt,
+    #[arg(long, default_value = "text", value_parser = formats(TABLE_FORMATS))]
+    format: Format,
     /// Write evolve.csv, evolve.json and the figures evolve_radius and evolve_phase (SVG, PDF, PNG) here.
     #[arg(long, value_name = "DIR")]
     out: Option<PathBuf>,
@@ -104,18 +104,13 @@ pub fn run(a: EvolveArgs) -> Result<()> {
     }
     if let Some(dir) = &a.out {
         ensure_dir(dir)?;
-        write_atomic(&dir.join("evolve.csv"), ex::evolve_csv(&rep).as_bytes())?;
-        write_atomic(&dir.join("evolve.json"), ex::evolve_json(&rep).as_bytes())?;
+        write_atomic(&dir.join("evolve.csv"), export::csv::evolve(&rep).as_bytes())?;
+        write_atomic(&dir.join("evolve.json"), export::json::pretty(&rep).as_bytes())?;
         let j = Junction::new(&s);
         for (stem, mut fig) in [("evolve_radius", radius_figure(&rep)), ("evolve_phase", phase_figure(&j, &rep))] {
             fig_opts.apply(&mut fig, junctura::plot::StyleName::Classic);
             write_figure(&fig, dir, stem)?;
         }
     }
-    match a.format {
-        Fmt::Json => print_stdout(&ex::evolve_json(&rep)),
-        Fmt::Text => print_stdout(&ex::evolve_text(&rep)),
-        Fmt::Csv => junctura::output::print_csv(&ex::evolve_csv(&rep))?,
-    }
-    Ok(())
+    print(a.format, &Item::Evolve(&rep))
 }

@@ -1,9 +1,10 @@
 //! `junctura map` (two-parameter maps, sharded or whole) and `junctura merge` (join shards).
 
-use super::common::to_json;
+use junctura::export::json::pretty;
 use junctura::export::map::{verify_part, DataDigest, MapMeta};
+use junctura::files::write_map;
 use junctura::output::{ensure_dir, print_stdout, write_atomic, AtomicFile};
-use junctura::report::map::{check_size, map_spec, map_summary, write_map};
+use junctura::report::map::{check_size, map_spec, map_summary};
 use junctura::scan::{shard_lines, MapSpec, Summary};
 use junctura::scenario::Scenario;
 use junctura::{Error, Result};
@@ -79,7 +80,7 @@ pub fn run(a: MapArgs) -> Result<()> {
                 return Err(Error::input("--shard needs --out DIR (the part file is written there) or --summary"));
             }
             let v = map_summary(&s, &spec, lines)?;
-            print_stdout(&to_json(&v));
+            print_stdout(&pretty(&v));
             Ok(())
         }
         (Some(dir), _) => {
@@ -219,7 +220,7 @@ pub fn run_merge(a: MergeArgs) -> Result<()> {
         junctura::output::warn(&note);
         m.figure_note = Some(note);
     }
-    write_atomic(&a.out.join("map.json"), to_json(&m).as_bytes())?;
+    write_atomic(&a.out.join("map.json"), pretty(&m).as_bytes())?;
     eprintln!("wrote {}", csv_path.display());
     eprintln!("wrote {}", a.out.join("map.json").display());
     if keep {

@@ -1,7 +1,7 @@
 //! `junctura report` (one scenario -> one folder) and `junctura demo` (the bundled demo scenarios).
 
 use super::common::{parse_axis, parse_family, range, FigureArgs, ScenarioArgs};
-use junctura::report::bundle::{write_report, ReportOptions};
+use junctura::files::{write_report, ReportOptions};
 use junctura::scenario::Scenario;
 use junctura::{Error, Result};
 use std::path::{Path, PathBuf};
@@ -123,7 +123,10 @@ pub fn run_demo(a: DemoArgs) -> Result<()> {
     };
     let cross = junctura::geodesic::crossing::cross(&star, star.params.values(), &req)?;
     let cross_json = serde_json::json!({"provenance": star.provenance(), "radius": 4.0, "shell_velocity": -0.3, "energy_minus": 1.1, "crossing": cross});
-    junctura::output::write_atomic(&particles.join("crossing.json"), super::common::to_json(&cross_json).as_bytes())?;
+    junctura::output::write_atomic(
+        &particles.join("crossing.json"),
+        junctura::export::json::pretty(&cross_json).as_bytes(),
+    )?;
     let chain_dir = PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("scenarios/chains/bounce-chain.toml");
     if chain_dir.exists() {
         let chain = junctura::geodesic::chain::Chain::load(&chain_dir)?;
@@ -131,7 +134,7 @@ pub fn run_demo(a: DemoArgs) -> Result<()> {
         let thr = junctura::units::PLANCK_LENGTH_M / unit.length_m();
         let run = junctura::geodesic::iterate::run_chain(&chain, chain.crossings, Some(thr))?;
         let prov = format!("{} | mass 1Msun", chain.provenance());
-        let csv = junctura::geodesic::series::chain_csv(&run, &prov, Some(&unit));
+        let csv = junctura::export::csv::chain(&run, &prov, Some(&unit));
         junctura::output::write_atomic(&particles.join("chain.csv"), csv.as_bytes())?;
         let series = junctura::geodesic::series::chain_series(&run, Some(&unit));
         for (name, fig) in

@@ -1,24 +1,18 @@
 //! `junctura statics`, `tune` and `sweep`: static radii with an equation of state.
 
-use super::common::{parse_axis, parse_pair, range, to_json, RangeArgs, ScenarioArgs};
-use clap::ValueEnum;
-use junctura::export::statics as ex;
-use junctura::output::{print_stdout, warn};
+use super::common::{formats, parse_axis, parse_pair, print, range, Format, RangeArgs, ScenarioArgs};
+use junctura::export::Item;
+use junctura::output::warn;
 use junctura::statics::sweep::sweep_with_progress;
 use junctura::statics::tune::{tune_at_radius, tune_marginal};
 use junctura::statics::{find_static_radii, StaticsOptions};
 use junctura::{Error, Result};
 
-/// Output formats of these commands.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
-pub enum Fmt {
-    /// Readable summary.
-    Text,
-    /// One JSON object.
-    Json,
-    /// CSV table.
-    Csv,
-}
+/// The formats of `statics`.
+const STATICS_FORMATS: &[Format] = &[Format::Text, Format::Json, Format::Csv, Format::Markdown];
+
+/// The formats of `tune`, `sweep` and `evolve`.
+pub const TABLE_FORMATS: &[Format] = &[Format::Text, Format::Json, Format::Csv];
 
 /// Arguments of `statics`.
 #[derive(clap::Args, Debug)]
@@ -27,38 +21,26 @@ pub struct StaticsArgs {
     scenario: ScenarioArgs,
     #[command(flatten)]
     range: RangeArgs,
-    /// Output format.
-    #[arg(long, value_enum, default_value_t = Fmt::Text)]
-    format: Fmt,
+    /// Output format (markdown: a table for notes).
+    #[arg(long, default_value = "text", value_parser = formats(STATICS_FORMATS))]
+    format: Format,
 }
 
 pub fn run_statics(a: StaticsArgs) -> Result<()> {
     let s = a.scenario.load()?;
     let (lo, hi) = a.range.resolve(&s)?;
     let rep = find_static_radii(&s, lo, hi, &StaticsOptions::default())?;
-    emit(a.format, &rep, &rep.notes, ex::statics_text, ex::statics_csv)?;
-    Ok(())
+    emit(a.format, &Item::Statics(&rep), &rep.notes)
 }
 
-/// Print a report in the chosen format; notes go to stderr unless the text form already shows them.
-fn emit<R: serde::Serialize>(
-    format: Fmt,
-    rep: &R,
-    notes: &[String],
-    text: fn(&R) -> String,
-    csv: fn(&R) -> String,
-) -> Result<()> {
-    if format != Fmt::Text {
+/// Print a result in the chosen format; notes go to stderr unless the text or Markdown form shows them.
+fn emit(format: Format, item: &Item<'_>, notes: &[String]) -> Result<()> {
+    if !matches!(format, Format::Text | Format::Markdown) {
         for n in notes {
             warn(n);
         }
     }
-    match format {
-        Fmt::Json => print_stdout(&to_json(rep)),
-        Fmt::Text => print_stdout(&text(rep)),
-        Fmt::Csv => junctura::output::print_csv(&csv(rep))?,
-    }
-    Ok(())
+    print(format, item)
 }
 
 /// Arguments of `tune`.
@@ -85,8 +67,8 @@ pub struct TuneArgs {
     #[arg(long, allow_hyphen_values = true)]
     within: Option<String>,
     /// Output format.
-    #[arg(long, value_enum, default_value_t = Fmt::Text)]
-    format: Fmt,
+    #[arg(long, default_value = "text", value_parser = formats(TABLE_FORMATS))]
+    format: Format,
 }
 
 pub fn run_tune(a: TuneArgs) -> Result<()> {
@@ -112,17 +94,7 @@ pub fn run_tune(a: TuneArgs) -> Result<()> {
         }
         tune_at_radius(&s, &a.solve, r, within, &opts).map_err(|e| e.context(s.origin.label()))?
     };
-    if a.format == Fmt::Json {
-        for n in &rep.notes {
-            warn(n);
-        }
-    }
-    match a.format {
-        Fmt::Json => print_stdout(&ex::tune_json(&rep)),
-        Fmt::Text => print_stdout(&ex::tune_text(&rep)),
-        Fmt::Csv => junctura::output::print_csv(&ex::tune_csv(&rep))?,
-    }
-    Ok(())
+    emit(a.format, &Item::Tune(&rep), &rep.notes)
 }
 
 /// Arguments of `sweep`.
@@ -136,8 +108,8 @@ pub struct SweepArgs {
     #[command(flatten)]
     range: RangeArgs,
     /// Output format.
-    #[arg(long, value_enum, default_value_t = Fmt::Text)]
-    format: Fmt,
+    #[arg(long, default_value = "text", value_parser = formats(TABLE_FORMATS))]
+    format: Format,
 }
 
 pub fn run_sweep(a: SweepArgs) -> Result<()> {
@@ -166,6 +138,5 @@ pub fn run_sweep(a: SweepArgs) -> Result<()> {
     if let Some(b) = bar {
         b.finish_and_clear();
     }
-    emit(a.format, &rep, &rep.notes, ex::sweep_text, ex::sweep_csv)?;
-    Ok(())
+    emit(a.format, &Item::Sweep(&rep), &rep.notes)
 }

@@ -1,5 +1,7 @@
-//! Map data as CSV (one row per cell) and JSON metadata; parsing back for merging shards.
+//! Map files: the CSV header and JSON metadata of a map or of one shard, and reading parts back for `merge`
+//! (row count, content hash, grid indices). The data rows are written by `csv::map_rows`.
 
+use super::csv::Table;
 use super::num;
 use crate::error::{Error, Result};
 use crate::scan::cell::MAX_ROOTS;
@@ -50,15 +52,43 @@ fn beta2_words(spec: &MapSpec) -> String {
     }
 }
 
-/// Comment lines (provenance) and the header line.
+/// Comment lines (provenance) and the header line of a map CSV (the rows: `csv::map_rows`).
 pub fn csv_header(s: &Scenario, spec: &MapSpec) -> String {
-    let mut roots = String::new();
-    for k in 1..=MAX_ROOTS {
-        roots.push_str(&format!(",radius_{k} [M],class_{k}"));
+    let radius = if spec.x.kind == crate::scan::AxisKind::Radius || spec.y.kind == crate::scan::AxisKind::Radius {
+        "static_radius"
+    } else {
+        "decisive_radius"
+    };
+    let mut head = vec![
+        "ix".to_string(),
+        "iy".into(),
+        format!("{} [{}]", spec.x.name, unit(spec.x.kind)),
+        format!("{} [{}]", spec.y.name, unit(spec.y.kind)),
+        format!("{radius} [M]"),
+    ];
+    for h in [
+        "sigma [1/M]",
+        "pressure [1/M]",
+        "beta2_used [1]",
+        "potential_second_derivative [1/M^2]",
+        "beta2_critical [1]",
+        "class",
+        "null",
+        "weak",
+        "strong",
+        "dominant",
+        "n_static",
+    ] {
+        head.push(h.into());
     }
-    format!(
-        "# {}\n# map {} {}..{} ({} points) x {} {}..{} ({} points); beta2 from {}; empty fields: not defined for the cell's class\nix,iy,{} [{}],{} [{}],{} [M],sigma [1/M],pressure [1/M],beta2_used [1],potential_second_derivative [1/M^2],beta2_critical [1],class,null,weak,strong,dominant,n_static{roots}\n",
-        map_provenance(s, spec),
+    for k in 1..=MAX_ROOTS {
+        head.push(format!("radius_{k} [M]"));
+        head.push(format!("class_{k}"));
+    }
+    let mut t = Table::new();
+    t.comment(&map_provenance(s, spec));
+    t.comment(&format!(
+        "map {} {}..{} ({} points) x {} {}..{} ({} points); beta2 from {}; empty fields: not defined for the cell's class",
         spec.x.name,
         num(spec.x.lo),
         num(spec.x.hi),
@@ -68,73 +98,9 @@ pub fn csv_header(s: &Scenario, spec: &MapSpec) -> String {
         num(spec.y.hi),
         spec.y.n,
         beta2_words(spec),
-        spec.x.name,
-        unit(spec.x.kind),
-        spec.y.name,
-        unit(spec.y.kind),
-        if spec.x.kind == crate::scan::AxisKind::Radius || spec.y.kind == crate::scan::AxisKind::Radius {
-            "static_radius"
-        } else {
-            "decisive_radius"
-        },
-    )
-}
-
-fn opt(x: f64) -> String {
-    if x.is_finite() {
-        num(x)
-    } else {
-        String::new()
-    }
-}
-
-/// One CSV row per cell, appended to `out`.
-pub fn csv_rows(cells: &[Cell], out: &mut String) {
-    use std::fmt::Write;
-    for c in cells {
-        let b = c.energy_bits;
-        let has = c.class != CellClass::NoStatic && c.class != CellClass::InsideHorizon;
-        let ec = |bit: u8| {
-            if has {
-                if b & bit != 0 {
-                    "true"
-                } else {
-                    "false"
-                }
-            } else {
-                ""
-            }
-        };
-        let _ = write!(
-            out,
-            "{},{},{},{},{},{},{},{},{},{},{},{},{},{},{},{}",
-            c.ix,
-            c.iy,
-            num(c.x),
-            num(c.y),
-            opt(c.radius),
-            opt(c.sigma),
-            opt(c.pressure),
-            opt(c.beta2),
-            opt(c.v2),
-            opt(c.beta2_critical),
-            c.class.name(),
-            ec(1),
-            ec(2),
-            ec(4),
-            ec(8),
-            c.n_static
-        );
-        for k in 0..MAX_ROOTS {
-            if c.roots[k].is_finite() {
-                let cls = CellClass::ALL.get(c.root_classes[k] as usize).map(|c| c.name()).unwrap_or("");
-                let _ = write!(out, ",{},{cls}", num(c.roots[k]));
-            } else {
-                out.push_str(",,");
-            }
-        }
-        out.push('\n');
-    }
+    ));
+    t.header(&head);
+    t.finish()
 }
 
 /// Parse the data rows of a map CSV (comment and header lines skipped) back into cells.

@@ -5,7 +5,7 @@
 //! - [`apex`]: the maximal radius of a bounded orbit and its areal and proper distance to the horizon, carried
 //!   to full relative precision right next to the horizon.
 //! - [`crossing`]: the crossing map minus -> plus for static, moving (timelike) and spacelike shells.
-//! - [`chain`] / [`iterate`]: chain files and the iterated crossing map; [`series`]: data for a figure and CSV.
+//! - [`chain`] / [`iterate`]: chain files and the iterated crossing map; [`series`]: data for a figure.
 //! - [`report`]: the result structs of a crossing (with the orbit on each side) and of a chain.
 //!
 //! Precision method: plain f64 with the small quantities (E^2, r_max - r_h) carried directly and near-horizon
@@ -49,4 +49,4 @@ pub use iterate::{run_chain, ChainRow, ChainRun};
 pub use quad::{Quad, QuadOptions};
 pub use radial::{Particle, Radial};
 pub use report::{chain_report, crossing_report, ChainReport, ChainRowReport, CrossingReport, OrbitReport};
-pub use series::{chain_csv, chain_series, Series};
+pub use series::{chain_series, Series};

@@ -1,5 +1,5 @@
-//! Data series of a chain run against crossing number, for a figure, and the chain's CSV table. Pure
-//! functions: they return data or text; files are written elsewhere (`output::write_atomic`).
+//! Data series of a chain run against crossing number, for a figure. A pure function: it returns data; the
+//! chain's CSV table is `export::csv::chain`, files are written elsewhere (`output::write_atomic`).
 //!
 //! The figure itself belongs to the plotting module: [`chain_series`] is the one place that decides what is
 //! plotted (log-scale y axes for the distances), so wiring it to a plot needs no physics.
@@ -54,44 +54,4 @@ pub fn chain_series(run: &ChainRun, unit: Option<&MassUnit>) -> Vec<Series> {
         mk("areal_distance", format!("r_max - r_h [{u}]"), true, areal),
         mk("proper_distance", format!("proper distance from horizon [{u}]"), true, proper),
     ]
-}
-
-fn opt(v: Option<f64>) -> String {
-    v.map(|x| format!("{x:.17e}")).unwrap_or_default()
-}
-
-/// The chain table as CSV: a provenance comment line, a header line with units, one row per crossing.
-/// Lengths in geometric units (G M/c^2, "M"); with a mass unit, also in metres.
-pub fn chain_csv(run: &ChainRun, provenance: &str, unit: Option<&MassUnit>) -> String {
-    let mut o = format!("# {provenance}\n");
-    o.push_str("crossing,stage,pass,radius [M],energy_minus [1],energy_plus [1],one_minus_energy_sq [1],relative_lorentz_factor [1],apex_radius [M],horizon_radius [M],areal_distance [M],proper_distance [M]");
-    if unit.is_some() {
-        o.push_str(",areal_distance [m],proper_distance [m]");
-    }
-    o.push_str(",status\n");
-    for r in &run.rows {
-        let a = r.apex.as_ref();
-        let mut cells = vec![
-            r.crossing.to_string(),
-            r.stage.to_string(),
-            r.pass.to_string(),
-            format!("{:.17e}", r.radius),
-            format!("{:.17e}", r.energy_minus),
-            opt(r.energy_plus),
-            opt(r.one_minus_energy_sq),
-            opt(r.relative_lorentz_factor),
-            opt(a.map(|a| a.radius)),
-            opt(a.and_then(|a| a.horizon)),
-            opt(a.and_then(|a| a.areal_distance)),
-            opt(a.and_then(|a| a.proper_distance)),
-        ];
-        if let Some(u) = unit {
-            cells.push(opt(a.and_then(|a| a.areal_distance).map(|d| u.to_m(d))));
-            cells.push(opt(a.and_then(|a| a.proper_distance).map(|d| u.to_m(d))));
-        }
-        cells.push(format!("\"{}\"", r.status.replace('"', "'")));
-        o.push_str(&cells.join(","));
-        o.push('\n');
-    }
-    o
 }

@@ -434,7 +434,7 @@ pub fn sigma_pressure_figure_with(s: &Scenario, lo: f64, hi: f64, ov: Option<&Ov
         for (name, pts) in [("σ₀", &sig), ("p₀", &pre)] {
             let at = clipped_at(pts, (y0, y1));
             if !at.is_empty() {
-                let list: Vec<String> = at.iter().map(|a| crate::export::num(round_to(*a, 3))).collect();
+                let list: Vec<String> = at.iter().map(|a| crate::text::num(round_to(*a, 3))).collect();
                 notes.push(format!("{name} leaves the plotted range (clipped) near a = {}.", list.join(", ")));
             }
         }
@@ -680,7 +680,7 @@ pub fn family_figures(
     let prov = format!(
         "{} | family {param} = {}",
         s.provenance(),
-        values.iter().map(|v| crate::export::num(*v)).collect::<Vec<_>>().join(", ")
+        values.iter().map(|v| crate::text::num(*v)).collect::<Vec<_>>().join(", ")
     );
     let crit = Figure {
         look: crate::plot::Look { band_opacity: (0.4 / values.len() as f64).clamp(0.08, 0.25), ..Default::default() },
@@ -705,7 +705,7 @@ pub fn family_figures(
         at.sort_by(|a, b| a.total_cmp(b));
         at.dedup_by(|a, b| (*a - *b).abs() < 0.05 * (hi - lo));
         if !at.is_empty() {
-            let list: Vec<String> = at.iter().take(4).map(|a| crate::export::num(round_to(*a, 3))).collect();
+            let list: Vec<String> = at.iter().take(4).map(|a| crate::text::num(round_to(*a, 3))).collect();
             pre_notes.push(format!("p₀ diverges towards the horizons and is clipped near a = {}.", list.join(", ")));
         }
     }

@@ -1,15 +1,12 @@
-//! Two-parameter maps as results: whole maps as cells ([`map_cells`]), counts only ([`map_summary`]), and the
-//! streamed CSV + JSON + figure of a map or of one shard ([`write_map`]). The cells come from
-//! [`crate::scan::evaluate_lines`]; this module only orders, counts and writes them.
+//! Two-parameter maps as results: the map's axes ([`map_spec`]), whole maps as cells ([`map_cells`]), counts
+//! only ([`map_summary`]) and the figure of a map written to files ([`map_file_figure`]). The cells come from
+//! [`crate::scan::evaluate_lines`]; this module only orders and counts them (`files::map` writes them).
 
 use crate::error::{Error, Result};
-use crate::export::map::{csv_header, csv_rows};
 use crate::metric::default_range;
-use crate::output::{write_atomic, AtomicFile};
 use crate::request::{parse_axis, range};
-use crate::scan::{evaluate_lines, summarize_lines, Axis, Cell, MapSpec, Summary};
+use crate::scan::{evaluate_lines, summarize_lines, Axis, Cell, MapSpec};
 use crate::scenario::Scenario;
-use std::path::{Path, PathBuf};
 
 /// Most cells a map written to files may have (a CSV row is about 100 bytes: 1e9 cells is ~100 GB).
 pub const MAX_FILE_CELLS: u128 = 1_000_000_000;
@@ -102,69 +99,6 @@ pub fn map_cells(s: &Scenario, spec: &MapSpec, progress: &dyn Fn(usize, usize)) 
     out.into_iter()
         .collect::<Option<Vec<Cell>>>()
         .ok_or_else(|| Error::numerical("map: a cell was not evaluated (internal ordering error)"))
-}
-
-/// Evaluate `lines` in chunks, streaming the CSV (`map.csv`, or `map.part-K-of-N.csv` for a shard), then write
-/// the JSON metadata and (whole maps up to [`MAX_KEPT_CELLS`]) the figure; returns the files written.
-/// `progress(done, total)` is called after each chunk with the number of lines done.
-pub fn write_map(
-    s: &Scenario,
-    spec: &MapSpec,
-    lines: std::ops::Range<usize>,
-    shard: Option<(usize, usize)>,
-    dir: &Path,
-    fig_opts: &crate::plot::FigureOptions,
-    progress: &dyn Fn(usize, usize),
-) -> Result<Vec<PathBuf>> {
-    let stem = match shard {
-        Some((k, n)) => format!("map.part-{}-of-{}", k + 1, n),
-        None => "map".to_string(),
-    };
-    let csv_path = dir.join(format!("{stem}.csv"));
-    let mut csv = AtomicFile::create(&csv_path)?;
-    csv.write(csv_header(s, spec).as_bytes())?;
-    let total = lines.len();
-    let mut summary = Summary::default();
-    let mut digest = crate::export::map::DataDigest::default();
-    let mut classes: Vec<Cell> = Vec::new();
-    let keep_cells = shard.is_none() && (spec.x.n as u64) * (spec.y.n as u64) <= MAX_KEPT_CELLS;
-    // Lines per block: about 1% of the map, but never more than ~1e6 cells held at once.
-    let chunk = 64.max(total / 100).min((1usize << 20) / spec.line_len().max(1)).max(1);
-    let mut start = lines.start;
-    while start < lines.end {
-        let end = (start + chunk).min(lines.end);
-        let block = evaluate_lines(s, spec, start..end)?;
-        let mut text = String::new();
-        for line in &block {
-            csv_rows(line, &mut text);
-            for c in line {
-                summary.add(c.class, c.energy_bits);
-            }
-            if keep_cells {
-                classes.extend_from_slice(line);
-            }
-        }
-        csv.write(text.as_bytes())?;
-        digest.add(&text);
-        progress(end - lines.start, total);
-        start = end;
-    }
-    csv.finish()?;
-    let mut m = crate::export::map::meta_with_data(s, spec, summary, shard, digest);
-    if shard.is_none() && !keep_cells {
-        let note = no_figure_note(spec);
-        crate::output::warn(&note);
-        m.figure_note = Some(note);
-    }
-    let json_path = dir.join(format!("{stem}.json"));
-    let json = serde_json::to_string_pretty(&m).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"));
-    write_atomic(&json_path, json.as_bytes())?;
-    let mut written = vec![csv_path, json_path];
-    if keep_cells {
-        let fig = map_file_figure(s, spec, &classes, crate::export::map::map_provenance(s, spec), fig_opts);
-        written.extend(crate::plot::write_figure(&fig, dir, "map")?);
-    }
-    Ok(written)
 }
 
 /// The note written (stderr and `figure_note` in map.json) when a map is too large for its figure.

@@ -4,14 +4,17 @@
 # a build of an earlier commit), on the same machine in the same run, and prints the ratio and whether the counts
 # agree. Times are the best and the median wall time of RUNS runs; the load average is printed, since other
 # processes share the cores.
-# Usage: BASE=path/to/old/junctura benches/two_parameter_map.sh [RUNS] [N]
+# Usage: BASE=path/to/old/junctura [NEW=path/to/junctura] benches/two_parameter_map.sh [RUNS] [N]
+# (NEW defaults to a fresh release build of this checkout).
 set -euo pipefail
 cd "$(dirname "$0")/.."
 RUNS=${1:-3}
 N=${2:-200}
 BASE=${BASE:?set BASE to the baseline junctura binary}
-cargo build --release --quiet --bin junctura
-NEW=target/release/junctura
+if [ -z "${NEW:-}" ]; then
+  cargo build --release --quiet --bin junctura
+  NEW=target/release/junctura
+fi
 load() { cut -d' ' -f1-3 /proc/loadavg; }
 # name | scenario | axes
 MAPS=(

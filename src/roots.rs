@@ -80,9 +80,21 @@ pub fn sample_points(lo: f64, hi: f64, n: usize) -> Vec<f64> {
 }
 
 /// Safeguarded Newton-bisection on a bracket [a, b] with f(a) f(b) < 0. `f` returns (value, derivative).
-pub fn refine<F: Fn(f64) -> Option<(f64, f64)>>(f: &F, mut a: f64, mut b: f64, opts: &RootOptions) -> Option<f64> {
+pub fn refine<F: Fn(f64) -> Option<(f64, f64)>>(f: &F, a: f64, b: f64, opts: &RootOptions) -> Option<f64> {
     let (fa, _) = f(a)?;
     let (fb, _) = f(b)?;
+    refine_from(f, (a, fa), (b, fb), 0.5 * (a + b), opts)
+}
+
+/// [`refine`] on a bracket whose end values are known, starting from `x0` (a predicted root, e.g. the root at a
+/// neighbouring parameter point) when it lies strictly inside the bracket, else from the midpoint.
+pub fn refine_from<F: Fn(f64) -> Option<(f64, f64)>>(
+    f: &F,
+    (mut a, fa): (f64, f64),
+    (mut b, fb): (f64, f64),
+    x0: f64,
+    opts: &RootOptions,
+) -> Option<f64> {
     if fa == 0.0 {
         return Some(a);
     }
@@ -96,7 +108,8 @@ pub fn refine<F: Fn(f64) -> Option<(f64, f64)>>(f: &F, mut a: f64, mut b: f64, o
     if fa > 0.0 {
         std::mem::swap(&mut a, &mut b);
     }
-    let mut x = 0.5 * (a + b);
+    let inside = x0 > a.min(b) && x0 < a.max(b);
+    let mut x = if inside { x0 } else { 0.5 * (a + b) };
     let mut dx_old = (b - a).abs();
     let mut dx = dx_old;
     let (mut fx, mut dfx) = f(x)?;

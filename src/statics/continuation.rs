@@ -12,17 +12,18 @@
 //! spacing, or at the next full search (the first cell of every line).
 
 use super::{
-    classify, intervals_between, is_rounding, radius_notes, residual, Cut, CutKind, StaticSearch, StaticsOptions,
+    classify, intervals_between, is_rounding, radius_notes, residual_with_jets, Cut, CutKind, StaticSearch,
+    StaticsOptions,
 };
 use crate::junction::Junction;
 use crate::metric::SideFns;
 use crate::model::{MetricSide, Model};
-use crate::roots::{refine, sample_points};
+use crate::roots::{refine_from, sample_points};
 use crate::scenario::Which;
 use num_dual::Dual64;
 
 /// Samples over the whole range for horizons, and over each searched interval for static radii.
-pub const COARSE_SAMPLES: usize = 48;
+pub const COARSE_SAMPLES: usize = 32;
 
 /// The static radii at `params`, predicted by `prev` (the search at a neighbouring point of the same range) and
 /// confirmed by a coarse search; `None` where the structure changed or cannot be confirmed cheaply.
@@ -49,7 +50,8 @@ pub fn continue_search(
             let d: Dual64 = fns.b(Dual64::new(r, 1.0));
             Some((d.re, d.eps))
         };
-        let (found, poles) = sign_changes(&value, &b, &sample_points(lo, hi, COARSE_SAMPLES), opts)?;
+        let guesses: Vec<f64> = prev.cuts.iter().filter(|c| c.side == w).map(|c| c.radius).collect();
+        let (found, poles) = sign_changes(&value, &b, &sample_points(lo, hi, COARSE_SAMPLES), &guesses, opts)?;
         if !poles.is_empty() || found.len() != prev.cuts.iter().filter(|c| c.side == w).count() {
             return None;
         }
@@ -61,23 +63,32 @@ pub fn continue_search(
     }
     let j0 = Junction::with_params(m, params.to_vec());
     let j1: Junction<Dual64> = Junction::with_params(m, super::lift_params(params));
-    let f = |a: f64| residual(&j1, Dual64::new(a, 1.0)).map(|(v, _)| (v.re, v.eps));
+    // First-order jets suffice for sigma0, p0 and the rule; nested in Dual64 they give the residual's slope too.
+    let jets =
+        |j: &Junction<Dual64>, a: Dual64| (j.first_order_jet(Which::Minus, a), j.first_order_jet(Which::Plus, a));
+    let f = |a: f64| {
+        let x = Dual64::new(a, 1.0);
+        let (jm, jp) = jets(&j1, x);
+        residual_with_jets(&j1, x, jm, jp).map(|(v, _)| (v.re, v.eps))
+    };
     let mut radii = Vec::new();
     let mut poles = Vec::new();
     for (iv, old) in intervals.iter().zip(&prev.intervals) {
         let xs = sample_points(iv.from, iv.to, COARSE_SAMPLES);
+        let inside = |r: f64| r >= old.from && r <= old.to;
         // One plain evaluation per sample serves the sign scan and the test for a neutral family.
         let neutral = std::cell::Cell::new(false);
         let value = |a: f64| {
-            let (v, sv) = residual(&j0, a)?;
+            let (jm, jp) = (j0.first_order_jet(Which::Minus, a), j0.first_order_jet(Which::Plus, a));
+            let (v, sv) = residual_with_jets(&j0, a, jm, jp)?;
             neutral.set(neutral.get() || is_rounding(v, &sv, opts));
             Some(v)
         };
-        let (roots, new_poles) = sign_changes(&value, &f, &xs, opts)?;
+        let guesses: Vec<f64> = prev.static_radii.iter().map(|r| r.radius).filter(|&r| inside(r)).collect();
+        let (roots, new_poles) = sign_changes(&value, &f, &xs, &guesses, opts)?;
         if neutral.get() {
             return None;
         }
-        let inside = |r: f64| r >= old.from && r <= old.to;
         let before = prev.static_radii.iter().filter(|r| inside(r.radius)).count();
         let poles_before = prev.poles_rejected.iter().filter(|&&p| inside(p)).count();
         if roots.len() != before || new_poles.len() != poles_before {
@@ -102,8 +113,15 @@ pub fn continue_search(
 
 /// Every sign change of `value` between consecutive samples `xs`, refined to a root of `f` (value and
 /// derivative) and sorted into roots and poles (a sign change where |f| does not drop below its end values);
-/// `None` if the function is undefined at a sample or vanishes exactly at one.
-fn sign_changes<V, F>(value: &V, f: &F, xs: &[f64], opts: &StaticsOptions) -> Option<(Vec<f64>, Vec<f64>)>
+/// `None` if the function is undefined at a sample or vanishes exactly at one. Newton starts from the `guesses`
+/// (the neighbour's roots, in order) that fall in a bracket, else from its midpoint.
+fn sign_changes<V, F>(
+    value: &V,
+    f: &F,
+    xs: &[f64],
+    guesses: &[f64],
+    opts: &StaticsOptions,
+) -> Option<(Vec<f64>, Vec<f64>)>
 where
     V: Fn(f64) -> Option<f64>,
     F: Fn(f64) -> Option<(f64, f64)>,
@@ -115,7 +133,9 @@ where
     let (mut roots, mut poles) = (Vec::new(), Vec::new());
     for k in 0..xs.len() - 1 {
         if vs[k].signum() != vs[k + 1].signum() {
-            let x = refine(f, xs[k], xs[k + 1], &opts.roots)?;
+            let (a, b) = (xs[k], xs[k + 1]);
+            let guess = guesses.iter().copied().find(|&g| g > a && g < b).unwrap_or(0.5 * (a + b));
+            let x = refine_from(f, (a, vs[k]), (b, vs[k + 1]), guess, &opts.roots)?;
             let (v, _) = f(x)?;
             if v.abs() > vs[k].abs().min(vs[k + 1].abs()) {
                 poles.push(x);

@@ -155,8 +155,11 @@ pub struct StaticsReport {
 /// f(a) = p0(a) - P(sigma0(a)) and the static values, at any number type; `None` where a static timelike shell
 /// cannot sit (a side not in an R-region) or the law is undefined.
 pub fn residual<T: Scalar>(j: &Junction<T>, a: T) -> Option<(T, StaticValues<T>)> {
-    let jm = j.jet(Which::Minus, a);
-    let jp = j.jet(Which::Plus, a);
+    residual_with_jets(j, a, j.jet(Which::Minus, a), j.jet(Which::Plus, a))
+}
+
+/// [`residual`] from the two sides' jets at `a` (first derivatives suffice: [`Junction::first_order_jet`]).
+pub fn residual_with_jets<T: Scalar>(j: &Junction<T>, a: T, jm: Jet<T>, jp: Jet<T>) -> Option<(T, StaticValues<T>)> {
     let re = |j: &Jet<T>| Jet { a: j.a.map(|x| x.re()), b: j.b.map(|x| x.re()) };
     admissible::static_site(j.kind, [j.keep_minus, j.keep_plus], a.re(), [&re(&jm), &re(&jp)]).ok()?;
     let stress = j.stress_with_jets(&jm, &jp, a, T::zero(), T::zero()).ok()?;

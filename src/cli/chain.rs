@@ -2,7 +2,7 @@
 
 use super::common::to_json;
 use clap::ValueEnum;
-use junctura::geodesic::{chain_csv, chain_report, Chain, ChainReport};
+use junctura::geodesic::{chain, Chain, ChainReport, ChainRequest};
 use junctura::output::{ensure_dir, print_stdout, warn, write_atomic};
 use junctura::Result;
 use std::path::PathBuf;
@@ -45,14 +45,13 @@ pub struct Args {
 
 pub fn run(args: Args) -> Result<()> {
     let fig_opts = args.figure.options()?;
-    let chain = Chain::load(&args.file)?;
-    let crossings = args.crossings.unwrap_or(chain.crossings);
-    let report = chain_report(&chain, crossings, args.mass.as_deref(), args.within.as_deref())?;
+    let file = Chain::load(&args.file)?;
+    let req = ChainRequest { crossings: args.crossings, mass: args.mass.clone(), within: args.within.clone() };
+    let report = chain(&file, &req)?;
     for w in &report.warnings {
         warn(w);
     }
-    let (unit, threshold, provenance) = (report.unit, report.run.threshold, report.provenance.clone());
-    let csv = chain_csv(&report.run, &provenance, unit.as_ref());
+    let csv = report.csv();
     let json = to_json(&report);
     if let Some(dir) = &args.out {
         ensure_dir(dir)?;
@@ -62,14 +61,7 @@ pub fn run(args: Args) -> Result<()> {
             write_atomic(&p, body.as_bytes())?;
             eprintln!("wrote {}", p.display());
         }
-        let thr_plot = match (threshold, unit.as_ref()) {
-            (Some(t), Some(u)) => Some(u.to_m(t)),
-            (t, _) => t,
-        };
-        for (name, mut fig) in junctura::report::figures::chain_figures(&report.series, thr_plot, &provenance) {
-            if fig.series.iter().all(|s| s.points.iter().all(|p| !p.1.is_finite())) {
-                continue;
-            }
+        for (name, mut fig) in report.figures() {
             fig_opts.apply(&mut fig, junctura::plot::StyleName::Classic);
             for p in junctura::plot::write_figure(&fig, dir, &format!("{stem}_{name}"))? {
                 eprintln!("wrote {}", p.display());
@@ -79,7 +71,7 @@ pub fn run(args: Args) -> Result<()> {
     match args.format {
         ChainFormat::Json => print_stdout(&json),
         ChainFormat::Csv => junctura::output::print_csv(&csv)?,
-        ChainFormat::Text => print_stdout(&text(&report, unit.is_some())),
+        ChainFormat::Text => print_stdout(&text(&report, report.unit.is_some())),
     }
     Ok(())
 }

@@ -3,7 +3,7 @@
 use super::common::{to_json, Format, RangeArgs, ScenarioArgs};
 use junctura::metric::RegionKind;
 use junctura::output::print_stdout;
-use junctura::survey::{survey, SurveyReport};
+use junctura::survey::{check, SurveyReport};
 use junctura::Result;
 
 /// Arguments of `check`.
@@ -20,8 +20,7 @@ pub struct Args {
 
 pub fn run(args: Args) -> Result<()> {
     let s = args.scenario.load()?;
-    let (lo, hi) = args.range.resolve(&s)?;
-    let report = survey(&s, lo, hi);
+    let report = check(&s, &args.range.request())?;
     match args.format {
         Format::Json => print_stdout(&to_json(&report)),
         Format::Text | Format::Latex => print_stdout(&text(&report)),

@@ -2,7 +2,7 @@
 
 use super::common::{to_json, ScenarioArgs};
 use clap::ValueEnum;
-use junctura::geodesic::{crossing_report, CrossingReport, CrossingRequest, Direction, Particle};
+use junctura::geodesic::{CrossingReport, CrossingRequest, Direction, Particle};
 use junctura::output::print_stdout;
 use junctura::Result;
 
@@ -53,9 +53,6 @@ pub struct Args {
 
 pub fn run(args: Args) -> Result<()> {
     let s = args.scenario.load()?;
-    for (flag, v) in [("--radius", args.radius), ("--energy", args.energy), ("--shell-velocity", args.shell_velocity)] {
-        junctura::request::value(flag, v)?;
-    }
     let particle = if args.null { Particle::Null } else { Particle::Timelike };
     let direction = args.direction.map(|d| match d {
         DirectionArg::Inward => Direction::Inward,
@@ -68,7 +65,7 @@ pub fn run(args: Args) -> Result<()> {
         particle,
         direction,
     };
-    let report = crossing_report(&s, &req)?;
+    let report = junctura::geodesic::report(&s, &req)?;
     match args.format {
         GeoFormat::Json => print_stdout(&to_json(&report)),
         GeoFormat::Text => print_stdout(&text(&report)),

@@ -30,8 +30,8 @@ pub fn map_spec(
     from: Option<f64>,
     to: Option<f64>,
 ) -> Result<MapSpec> {
-    let xs = parse_axis("--x", x)?;
-    let ys = parse_axis("--y", y)?;
+    let xs = parse_axis(crate::RequestField::X, x)?;
+    let ys = parse_axis(crate::RequestField::Y, y)?;
     let x = Axis::new(s, &xs.name, xs.lo, xs.hi, xs.n)?;
     let y = Axis::new(s, &ys.name, ys.lo, ys.hi, ys.n)?;
     let rr = range(from, to, default_range(s))?;

@@ -86,6 +86,24 @@ pub enum RequestField {
     YLim,
     /// Splitting a scan into parts.
     Shard,
+    /// Starting a motion at rest on a static radius.
+    FromStatic,
+    /// Stopping a motion at a horizon.
+    StopAtHorizon,
+    /// The shell state of closed forms (static or moving).
+    State,
+    /// A text width.
+    Width,
+    /// The output folder.
+    Out,
+    /// A logarithmic horizontal axis.
+    LogX,
+    /// A logarithmic vertical axis.
+    LogY,
+    /// Counts only (a map that stores no cells).
+    Summary,
+    /// Parameter overrides `NAME=VALUE`.
+    Set,
 }
 
 impl RequestField {
@@ -117,7 +135,16 @@ impl RequestField {
             Solve => "solve",
             XLim => "xlim",
             YLim => "ylim",
-            Shard => "shards",
+            Shard => "shard",
+            FromStatic => "from static",
+            StopAtHorizon => "stop at horizon",
+            State => "state",
+            Width => "width",
+            Out => "the output folder",
+            LogX => "log x",
+            LogY => "log y",
+            Summary => "summary",
+            Set => "set",
         }
     }
 }
@@ -168,6 +195,12 @@ impl Phrase {
     /// The text in the library's words ([`RequestField::name`]).
     pub fn text(&self) -> String {
         self.render(&RequestField::name)
+    }
+
+    /// This phrase followed by `more`.
+    pub fn then(mut self, more: Phrase) -> Phrase {
+        self.0.extend(more.0);
+        self
     }
 
     /// The request fields it names, in order.
@@ -272,6 +305,13 @@ impl Error {
     pub fn request(kind: ErrorKind, field: RequestField, value: impl fmt::Display, message: Phrase) -> Self {
         let mut e = Error::new(kind, message.text());
         e.problem = Problem::BadRequest { field, value: value.to_string() };
+        e.phrased = Some(Box::new(Phrased { message, hint: None }));
+        e
+    }
+
+    /// An error whose message names request fields (no single refused value: [`Problem::Other`]).
+    pub fn phrased(kind: ErrorKind, message: Phrase) -> Self {
+        let mut e = Error::new(kind, message.text());
         e.phrased = Some(Box::new(Phrased { message, hint: None }));
         e
     }

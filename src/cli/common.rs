@@ -93,6 +93,15 @@ pub fn flag(field: RequestField) -> &'static str {
         XLim => "--xlim",
         YLim => "--ylim",
         Shard => "--shard",
+        FromStatic => "--from-static",
+        StopAtHorizon => "--stop-at-horizon",
+        State => "--state",
+        Width => "--width",
+        Out => "--out",
+        LogX => "--log-x",
+        LogY => "--log-y",
+        Summary => "--summary",
+        Set => "--set",
         // The enum is non-exhaustive: a field added later prints by its library name until it gets a row here.
         other => other.name(),
     }

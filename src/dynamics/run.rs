@@ -6,11 +6,11 @@ use super::analysis::{ensemble_kicks, fate, period, Ensemble, Fate, Member, Peri
 use super::integrate::{integrate, Event, EvolveOptions, Trajectory};
 use super::motion::Motion;
 use crate::error::{Error, ErrorKind, RequestField as F, Result};
-use crate::phrase;
 use crate::junction::potential::Law;
 use crate::junction::stability::{marginal_scale, MARGINAL_TOL};
 use crate::junction::{admissible, Junction};
 use crate::metric::RegionKind;
+use crate::phrase;
 use crate::scenario::Which;
 use crate::scenario::{Scenario, ShellKind};
 use crate::statics::{find_static_radii, residual, StaticsOptions};
@@ -321,8 +321,11 @@ pub fn initial_from_data(s: &Scenario, j: &Junction<f64>, r: f64, start: Start) 
     check_evolvable(s)?;
     if !(r.is_finite() && r > 0.0) {
         let message = phrase![F::Radius, format!(" {r}: the areal radius must be a positive number")];
-        return Err(Error::request(ErrorKind::Input, F::Radius, r, message)
-            .with_hint_phrase(phrase!["e.g. ", F::Radius, " 10"]));
+        return Err(Error::request(ErrorKind::Input, F::Radius, r, message).with_hint_phrase(phrase![
+            "e.g. ",
+            F::Radius,
+            " 10"
+        ]));
     }
     // A refused start `what` (field and value) at this radius: "<what> at <radius> r<rest>".
     let at_radius = |what: (F, f64), rest: String| {
@@ -342,7 +345,7 @@ pub fn initial_from_data(s: &Scenario, j: &Junction<f64>, r: f64, start: Start) 
                 )
             ];
             return Err(Error::request(ErrorKind::Input, F::Radius, r, message)
-            .with_hint("start slightly off the horizon; the motion itself crosses horizons"));
+                .with_hint("start slightly off the horizon; the motion itself crosses horizons"));
         }
         if let Err(why) = admissible::signature(w, jet.a[0], jet.b[0], jet.b[1]) {
             let message = phrase![F::Radius, format!(" {r}: {why}")];
@@ -382,10 +385,12 @@ pub fn initial_from_data(s: &Scenario, j: &Junction<f64>, r: f64, start: Start) 
         Start::Sigma { sigma, outward } => {
             let what = (F::Sigma, sigma);
             if !(sigma.is_finite() && sigma != 0.0) {
-                let message =
-                    phrase![F::Sigma, format!(" {sigma}: the surface energy density must be a finite, non-zero number")];
+                let message = phrase![
+                    F::Sigma,
+                    format!(" {sigma}: the surface energy density must be a finite, non-zero number")
+                ];
                 return Err(Error::request(ErrorKind::Input, F::Sigma, sigma, message)
-                .with_hint("sigma = 0 leaves the junction condition without a solution unless both sides agree"));
+                    .with_hint("sigma = 0 leaves the junction condition without a solution unless both sides agree"));
             }
             let v = j.potential_sigma(r, sigma);
             let scale = 1.0 + jets[0].b[0].abs() + jets[1].b[0].abs();
@@ -401,10 +406,17 @@ pub fn initial_from_data(s: &Scenario, j: &Junction<f64>, r: f64, start: Start) 
                 (true, Some(true)) => speed,
                 (true, Some(false)) => -speed,
                 (true, None) => {
-                    return Err(at_radius(what, format!(
-                    ": the energy constraint gives |dR/dtau| = {speed:.6}, but not the direction"
-                ))
-                    .with_hint_phrase(phrase!["add ", F::Direction, " inward or ", F::Direction, " outward"]))
+                    return Err(at_radius(
+                        what,
+                        format!(": the energy constraint gives |dR/dtau| = {speed:.6}, but not the direction"),
+                    )
+                    .with_hint_phrase(phrase![
+                        "add ",
+                        F::Direction,
+                        " inward or ",
+                        F::Direction,
+                        " outward"
+                    ]))
                 }
             };
             (rdot, sigma, what)
@@ -430,9 +442,10 @@ pub fn initial_from_data(s: &Scenario, j: &Junction<f64>, r: f64, start: Start) 
         }
     }
     if !j.eos_at(sigma, |t| t).is_some_and(f64::is_finite) {
-        return Err(at_radius(what, format!(
-            ": the equation of state is undefined at the starting sigma = {sigma:.6e}"
-        ))
+        return Err(at_radius(
+            what,
+            format!(": the equation of state is undefined at the starting sigma = {sigma:.6e}"),
+        )
         .with_hint("the law p(sigma) must be finite at the start"));
     }
     Ok(Initial { radius: r, rdot, sigma })
@@ -491,8 +504,11 @@ pub fn evolve(
     let mut notes = Vec::new();
     if !(duration.is_finite() && duration > 0.0) {
         let message = phrase![F::Duration, format!(" {duration}: the proper-time duration must be a positive number")];
-        return Err(Error::request(ErrorKind::Input, F::Duration, duration, message)
-            .with_hint_phrase(phrase!["e.g. ", F::Duration, " 200"]));
+        return Err(Error::request(ErrorKind::Input, F::Duration, duration, message).with_hint_phrase(phrase![
+            "e.g. ",
+            F::Duration,
+            " 200"
+        ]));
     }
     if let Some((n, spread)) = ens {
         if !start.is_static() {
@@ -508,13 +524,21 @@ pub fn evolve(
         }
         if !(2..=100_000).contains(&n) {
             let message = phrase![F::Ensemble, format!(" {n}: give between 2 and 100000 members")];
-            return Err(Error::request(ErrorKind::Input, F::Ensemble, n, message)
-                .with_hint_phrase(phrase!["e.g. ", F::Ensemble, " 64 ", F::Spread, " 0.2"]));
+            return Err(Error::request(ErrorKind::Input, F::Ensemble, n, message).with_hint_phrase(phrase![
+                "e.g. ",
+                F::Ensemble,
+                " 64 ",
+                F::Spread,
+                " 0.2"
+            ]));
         }
         if !(spread.is_finite() && spread > 0.0) {
             let message = phrase![F::Spread, format!(" {spread}: the kick spread must be a positive number")];
-            return Err(Error::request(ErrorKind::Input, F::Spread, spread, message)
-                .with_hint_phrase(phrase!["e.g. ", F::Spread, " 0.2"]));
+            return Err(Error::request(ErrorKind::Input, F::Spread, spread, message).with_hint_phrase(phrase![
+                "e.g. ",
+                F::Spread,
+                " 0.2"
+            ]));
         }
     }
     let j = Junction::new(s);

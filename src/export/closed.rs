@@ -23,8 +23,15 @@ pub fn parse_width(w: &str) -> crate::Result<f64> {
         other => {
             let cm: f64 = other.trim_end_matches("cm").parse().map_err(|_| {
                 let message = phrase![Width, format!(" {other}: not `column`, `page` or a width in cm")];
-                crate::Error::request(ErrorKind::Input, Width, other, message)
-                    .with_hint_phrase(phrase!["e.g. ", Width, " column, ", Width, " page, ", Width, " 12.5"])
+                crate::Error::request(ErrorKind::Input, Width, other, message).with_hint_phrase(phrase![
+                    "e.g. ",
+                    Width,
+                    " column, ",
+                    Width,
+                    " page, ",
+                    Width,
+                    " 12.5"
+                ])
             })?;
             if !(cm.is_finite() && (3.0..=100.0).contains(&cm)) {
                 let message = phrase![Width, format!(" {other}: a text width between 3 and 100 cm is expected")];

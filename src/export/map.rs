@@ -146,8 +146,10 @@ pub fn parse_rows(text: &str, file: &str) -> Result<Vec<Cell>> {
         }
         let f: Vec<&str> = line.split(',').collect();
         let bad = || {
-            Error::input(format!("{file}:{}: not a map data row", ln + 1))
-                .with_hint_phrase(crate::phrase!["merge takes the part files written by map ", crate::RequestField::Shard])
+            Error::input(format!("{file}:{}: not a map data row", ln + 1)).with_hint_phrase(crate::phrase![
+                "merge takes the part files written by map ",
+                crate::RequestField::Shard
+            ])
         };
         if f.len() != 16 + 2 * MAX_ROOTS {
             return Err(bad());
@@ -299,7 +301,8 @@ pub fn verify_part(
     }
     let cells = parse_rows(body, file)?;
     if cells.len() as u64 != expected {
-        return Err(Error::input(format!("{file}: {} map rows, expected {expected}", cells.len())).with_hint_phrase(hint.clone()));
+        return Err(Error::input(format!("{file}: {} map rows, expected {expected}", cells.len()))
+            .with_hint_phrase(hint.clone()));
     }
     let mut k = 0;
     for line in lines.clone() {

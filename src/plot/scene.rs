@@ -209,8 +209,13 @@ fn transformed(fig: &Figure, look: &Look) -> Result<Figure> {
     }
     if fig.categories.is_some() {
         use crate::RequestField::{LogX, LogY};
-        return Err(Error::input("log axes are not available for maps")
-            .with_hint_phrase(crate::phrase!["drop ", LogX, " / ", LogY, " for maps"]));
+        return Err(Error::input("log axes are not available for maps").with_hint_phrase(crate::phrase![
+            "drop ",
+            LogX,
+            " / ",
+            LogY,
+            " for maps"
+        ]));
     }
     let lx = |x: f64| {
         if look.log_x {

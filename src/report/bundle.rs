@@ -106,10 +106,8 @@ pub fn check_options(s: &Scenario, opts: &ReportOptions) -> Result<()> {
                 Vary,
                 format!(" {name}: the sweep of static radii needs an equation of state, and the scenario has none")
             ];
-            return Err(Error::request(Input, Vary, name, message).with_hint_phrase(phrase![
-                "add [shell] pressure = \"...\" to the scenario, or leave out ",
-                Vary
-            ]));
+            return Err(Error::request(Input, Vary, name, message)
+                .with_hint_phrase(phrase!["add [shell] pressure = \"...\" to the scenario, or leave out ", Vary]));
         }
         if *n > 100_000 {
             let message = phrase![Vary, format!(" {name}: N = {n} values is more than a sweep needs")];
@@ -172,7 +170,9 @@ fn family_part(
     let (mut flo, mut fhi) = (lo, hi);
     for &v in values {
         let mut sc = s.clone();
-        sc.params.set(name, v).map_err(|e| e.context_phrase(crate::phrase![crate::RequestField::Family, format!(" {name}")]))?;
+        sc.params
+            .set(name, v)
+            .map_err(|e| e.context_phrase(crate::phrase![crate::RequestField::Family, format!(" {name}")]))?;
         if let Some((a, b)) = plot_range(&sc) {
             flo = flo.min(a);
             fhi = fhi.max(b);
@@ -192,7 +192,9 @@ fn family_part(
     let mut panels = Vec::new();
     for &v in values {
         let mut sc = s.clone();
-        sc.params.set(name, v).map_err(|e| e.context_phrase(crate::phrase![crate::RequestField::Family, format!(" {name}")]))?;
+        sc.params
+            .set(name, v)
+            .map_err(|e| e.context_phrase(crate::phrase![crate::RequestField::Family, format!(" {name}")]))?;
         let x = Axis::new(&sc, "radius", flo, fhi, (nx / 2).max(20))?;
         let y = Axis::new(&sc, "beta2", -3.0, 3.0, (ny / 2).max(20))?;
         let spec = MapSpec::new(&sc, x, y, None, (flo, fhi))?;

@@ -50,7 +50,8 @@ pub fn check_size(spec: &MapSpec, to_files: bool) -> Result<()> {
     use crate::{phrase, ErrorKind::Input, RequestField as F};
     let what = phrase![F::X, format!(" {} points x ", spec.x.n), F::Y, format!(" {} points = {cells} cells", spec.y.n)];
     if to_files && (cells > MAX_FILE_CELLS || spec.x.n.max(spec.y.n) > MAX_LINE_CELLS) {
-        let why = format!(": too many to write to files (at most {MAX_FILE_CELLS} cells, {MAX_LINE_CELLS} on one axis)");
+        let why =
+            format!(": too many to write to files (at most {MAX_FILE_CELLS} cells, {MAX_LINE_CELLS} on one axis)");
         return Err(Error::phrased(Input, what.then(phrase![why])).with_hint_phrase(phrase![
             "use fewer points, or ",
             F::Summary,
@@ -60,7 +61,7 @@ pub fn check_size(spec: &MapSpec, to_files: bool) -> Result<()> {
     if !to_files && cells > MAX_SUMMARY_CELLS {
         let why = format!(": too many to count in reasonable time (at most {MAX_SUMMARY_CELLS})");
         return Err(Error::phrased(Input, what.then(phrase![why]))
-        .with_hint("use fewer points; the counts converge long before this resolution"));
+            .with_hint("use fewer points; the counts converge long before this resolution"));
     }
     Ok(())
 }

@@ -5,6 +5,17 @@
 //! The library speaks of request fields ([`RequestField`]: "radius", "the axis x"), never of command-line
 //! options: a message that names a field keeps it as a [`Phrase`], so a front end can show its own name for the
 //! field ([`Error::render`]; the command-line program shows `--radius`, `--x`).
+//!
+//! ```
+//! use junctura::request::range;
+//! use junctura::{Problem, RequestField};
+//! let e = range(Some(5.0), Some(3.0), (1.0, 2.0)).unwrap_err();
+//! assert_eq!(e.message, "the range from 5 to 3 is empty or not finite");
+//! assert_eq!(e.problem, Problem::BadRequest { field: RequestField::From, value: "5".into() });
+//! // A front end names the fields its own way (here as keyword arguments).
+//! let shown = e.render(&|f| if f == RequestField::From { "from_=" } else { "to=" });
+//! assert!(shown.starts_with("the range from_= 5 to= 3 is empty"));
+//! ```
 
 use std::fmt;
 use std::path::{Path, PathBuf};

@@ -250,6 +250,23 @@ pub enum Problem {
         /// The closest known name, if one is close.
         suggestion: Option<String>,
     },
+    /// A shell cannot sit at this radius (on a horizon, where the metric changes signature, in the wrong kind
+    /// of region, against the side's `keep`): the admissibility rule's reason.
+    Inadmissible {
+        /// The radius.
+        radius: f64,
+        /// Why ([`crate::junction::admissible::Inadmissible`]).
+        reason: crate::junction::admissible::Inadmissible,
+    },
+    /// Text (a scenario or chain file, an expression in it) that does not parse.
+    Parse {
+        /// The file as messages name it.
+        file: String,
+        /// Line (from 1).
+        line: usize,
+        /// Column in characters (from 1).
+        column: usize,
+    },
     /// Reading or writing a file failed.
     Io {
         /// The file or folder.
@@ -332,6 +349,12 @@ impl Error {
         let mut e = Error::input(format!("unknown parameter '{name}'"));
         e.problem = Problem::UnknownParameter { name: name.to_string(), suggestion: suggestion.map(String::from) };
         e
+    }
+
+    /// Set the problem as data (the message says the same in words).
+    pub fn with_problem(mut self, problem: Problem) -> Self {
+        self.problem = problem;
+        self
     }
 
     /// Attach a hint.

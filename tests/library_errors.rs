@@ -167,3 +167,23 @@ fn no_library_string_names_a_command_line_option() {
     assert!(found.is_empty(), "library strings that name command-line options:\n{}", found.join("\n"));
     assert!(files.len() > 50, "src/ not found: {} files", files.len());
 }
+
+#[test]
+fn problems_carry_their_data() {
+    let e = Scenario::parse("name = \"x\"\n[parameters]\nm = \n", Some("bad.toml".into())).unwrap_err();
+    assert_eq!(e.problem, Problem::Parse { file: "bad.toml".into(), line: 3, column: 5 }, "{e}");
+    let text = std::fs::read_to_string("scenarios/schwarzschild-wormhole-linear.toml").unwrap();
+    let mut s = Scenario::parse(&text, None).unwrap();
+    let e = s.params.set("ww", 1.0).unwrap_err();
+    assert_eq!(e.problem, Problem::UnknownParameter { name: "ww".into(), suggestion: Some("w".into()) });
+    // Schwarzschild sides (m = 1): the horizon is at r = 2 (Schwarzschild 1916), r = 1.5 lies inside it.
+    use junctura::junction::admissible::Inadmissible;
+    use junctura::report::derive::{derive, State};
+    let at = |radius: f64| derive(&s, State { radius, velocity: 0.0, acceleration: 0.0 }).unwrap_err().problem;
+    assert!(
+        matches!(at(2.0), Problem::Inadmissible { radius, reason: Inadmissible::OnHorizon { .. } } if radius == 2.0)
+    );
+    assert!(matches!(at(1.5), Problem::Inadmissible { radius, .. } if radius == 1.5), "{:?}", at(1.5));
+    let e = Scenario::load(Path::new("/nonexistent/scenario.toml")).unwrap_err();
+    assert_eq!(e.problem, Problem::Io { path: "/nonexistent/scenario.toml".into() });
+}

@@ -7,13 +7,20 @@ class JuncturaError(Exception):
 
     The same facts as data, None where they do not apply: ``field`` (the argument, e.g. ``"radius"``) and
     ``value`` (as text) of a refused argument; ``parameter`` and ``suggestion`` (the closest known name) of an
-    unknown parameter; ``path`` of a file that could not be read or written."""
+    unknown parameter; ``radius`` and ``reason`` of a radius where no shell can sit (e.g. on a horizon);
+    ``file``, ``line`` and ``column`` of text that does not parse; ``path`` of a file that could not be read or
+    written."""
 
     kind = "error"
     field = None
     value = None
     parameter = None
     suggestion = None
+    radius = None
+    reason = None
+    file = None
+    line = None
+    column = None
     path = None
 
     def __init__(self, message, hint=None):

@@ -1,7 +1,9 @@
 //! Library errors as Python exceptions: `junctura.errors.InputError`, `NumericalError` or `IoError` (all
 //! subclasses of `JuncturaError`), carrying the message (with file:line:column or the parameter) and the hint,
 //! and the library's [`Problem`] as attributes: `field` and `value` of a refused request value, `parameter`
-//! and `suggestion` of an unknown parameter, `path` of an I/O failure (None where they do not apply).
+//! and `suggestion` of an unknown parameter, `radius` and `reason` of a radius where no shell can sit,
+//! `file`, `line` and `column` of text that does not parse, `path` of an I/O failure (None where they do not
+//! apply).
 
 use junctura::{Error, ErrorKind, Problem};
 use pyo3::prelude::*;
@@ -24,6 +26,15 @@ pub fn to_py(py: Python<'_>, e: Error) -> PyErr {
             Problem::UnknownParameter { name, suggestion } => {
                 obj.setattr("parameter", name)?;
                 obj.setattr("suggestion", suggestion.clone())?;
+            }
+            Problem::Inadmissible { radius, reason } => {
+                obj.setattr("radius", *radius)?;
+                obj.setattr("reason", reason.to_string())?;
+            }
+            Problem::Parse { file, line, column } => {
+                obj.setattr("file", file)?;
+                obj.setattr("line", *line)?;
+                obj.setattr("column", *column)?;
             }
             Problem::Io { path } => obj.setattr("path", path.display().to_string())?,
             _ => {}

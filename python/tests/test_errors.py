@@ -14,6 +14,7 @@ def test_toml_syntax_error_names_file_line_and_column(tmp_path):
     with pytest.raises(junctura.InputError) as e:
         junctura.Scenario.load(bad)
     assert f"{bad}:3:5" in str(e.value)
+    assert (e.value.file, e.value.line, e.value.column) == (str(bad), 3, 5)
     assert e.value.hint and "scenario format" in e.value.hint
     assert isinstance(e.value, ValueError) and isinstance(e.value, junctura.JuncturaError)
 
@@ -41,8 +42,9 @@ def test_missing_file_is_an_io_error():
 
 def test_radius_inside_a_horizon_is_a_numerical_error():
     sc = junctura.Scenario.load("scenarios/reissner-nordstrom-wormhole.toml")
-    with pytest.raises(junctura.NumericalError, match="minus side"):
+    with pytest.raises(junctura.NumericalError, match="minus side") as e:
         sc.derive(1.0)
+    assert e.value.radius == 1.0 and "minus side" in e.value.reason
 
 
 def test_bad_arguments_are_input_errors():

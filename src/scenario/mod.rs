@@ -299,12 +299,14 @@ impl Scenario {
         let file = origin.label();
         let raw: raw::RawScenario = toml::from_str(text).map_err(|e| {
             let mut msg = file.clone();
+            let mut problem = crate::Problem::Other;
             if let Some(span) = e.span() {
                 let (l, c) = line_col(text, span.start);
                 msg.push_str(&format!(":{l}:{c}"));
+                problem = crate::Problem::Parse { file: file.clone(), line: l, column: c };
             }
             msg.push_str(&format!(": {}", e.message()));
-            Error::input(msg).with_hint(
+            Error::input(msg).with_problem(problem).with_hint(
                 "see the scenario format in the README (keys: name, dimension, [parameters], [minus], [plus], [shell], [symbols])",
             )
         })?;
@@ -591,7 +593,7 @@ fn expr_error(text: &str, file: &str, value_start: usize, what: &str, e: ParseEr
         e.source,
         " ".repeat(e.column.saturating_sub(1))
     );
-    let mut err = Error::input(msg);
+    let mut err = Error::input(msg).with_problem(crate::Problem::Parse { file: file.to_string(), line, column: col });
     if let Some(h) = e.hint {
         err = err.with_hint(h);
     }

@@ -51,4 +51,4 @@ pub mod survey;
 pub mod text;
 pub mod units;
 
-pub use error::{Error, ErrorKind, Result};
+pub use error::{Error, ErrorKind, Problem, RequestField, Result};

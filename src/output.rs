@@ -244,8 +244,10 @@ pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<()> {
 
 /// Create an output folder (and parents); errors name the folder.
 pub fn ensure_dir(dir: &Path) -> Result<()> {
-    std::fs::create_dir_all(dir)
-        .map_err(|e| Error::io(dir, &e).with_hint("choose a folder you can write to with --out"))
+    std::fs::create_dir_all(dir).map_err(|e| {
+        Error::io(dir, &e)
+            .with_hint_phrase(crate::phrase!["choose a folder you can write to with ", crate::RequestField::Out])
+    })
 }
 
 /// Print to stdout; on a closed pipe exit quietly with status 0.

@@ -5,6 +5,7 @@
 //! B > 0, T-regions B < 0. The root finding and its tolerances are those of [`crate::metric::survey`].
 
 use crate::metric::{survey as survey_side, SideFns, SideSurvey};
+use crate::request::RangeRequest;
 use crate::roots::RootOptions;
 use crate::scenario::{Scenario, Which};
 use serde::Serialize;
@@ -49,6 +50,13 @@ pub struct SurveyReport {
     pub minus: SideReport,
     /// The side the normal points into.
     pub plus: SideReport,
+}
+
+/// `check`: survey both sides of `s` over the radius range `req` asks for (missing ends from the scenario's
+/// default range; the range is checked by [`RangeRequest::resolve`]).
+pub fn check(s: &Scenario, req: &RangeRequest) -> crate::Result<SurveyReport> {
+    let (lo, hi) = req.resolve(s)?;
+    Ok(survey(s, lo, hi))
 }
 
 /// Survey both sides of `s` over `[lo, hi]` (a range already checked, e.g. by [`crate::request::range`]).

@@ -10,7 +10,8 @@
 //! assert!((l - 1476.6).abs() < 0.1); // G M_sun / c^2 (IAU 2015 nominal value)
 //! ```
 
-use crate::error::{Error, Result};
+use crate::error::{Error, ErrorKind, RequestField, Result};
+use crate::phrase;
 
 /// Newtonian constant of gravitation G in m^3 kg^-1 s^-2 (CODATA 2018: Tiesinga et al., Rev. Mod. Phys. 93,
 /// 025010 (2021), table XXXI).
@@ -116,22 +117,27 @@ fn split_number_unit(text: &str) -> Option<(f64, &str)> {
     best
 }
 
+/// The mass `text` (field `mass`) refused because of `why`.
+fn bad_mass(text: &str, why: &str) -> Error {
+    let message = phrase![RequestField::Mass, format!(" '{text}': {why}")];
+    Error::request(ErrorKind::Input, RequestField::Mass, text, message)
+}
+
 /// Parse a mass with its unit: `Msun` (solar masses, IAU 2015 nominal), `kg`, `g`, or `mP` (Planck masses).
 /// `1Msun`, `1e30kg`, `2.5e-8kg`, `3 Msun` are all accepted. Returns kilograms.
 pub fn parse_mass(text: &str) -> Result<f64> {
     let hint =
         "write a number followed by a unit: Msun (solar masses), kg, g or mP (Planck masses), e.g. 1Msun or 1e30kg";
-    let (v, unit) = split_number_unit(text)
-        .ok_or_else(|| Error::input(format!("--mass '{text}': no number found")).with_hint(hint))?;
+    let (v, unit) = split_number_unit(text).ok_or_else(|| bad_mass(text, "no number found").with_hint(hint))?;
     let kg = match unit {
         "Msun" | "Msol" | "M_sun" => v * M_SUN_KG,
         "kg" => v,
         "g" => v * 1e-3,
         "mP" => v * PLANCK_MASS_KG,
-        "" => return Err(Error::input(format!("--mass '{text}': the unit is missing")).with_hint(hint)),
-        other => return Err(Error::input(format!("--mass '{text}': unknown mass unit '{other}'")).with_hint(hint)),
+        "" => return Err(bad_mass(text, "the unit is missing").with_hint(hint)),
+        other => return Err(bad_mass(text, &format!("unknown mass unit '{other}'")).with_hint(hint)),
     };
-    MassUnit::new(kg).map_err(|e| e.context(format!("--mass '{text}'")))?;
+    MassUnit::new(kg).map_err(|e| e.context_phrase(phrase![RequestField::Mass, format!(" '{text}'")]))?;
     Ok(kg)
 }
 
@@ -151,7 +157,13 @@ impl Length {
             (Length::Geometric(g), _) => Ok(*g),
             (Length::Metres(m), Some(u)) => Ok(u.from_m(*m)),
             (Length::Metres(m), None) => Err(Error::input(format!("a length of {m:e} m needs a mass unit"))
-                .with_hint("give --mass (e.g. --mass 1Msun) or a length in geometric units, e.g. 1e-3M")),
+                .with_hint_phrase(phrase![
+                    "give ",
+                    RequestField::Mass,
+                    " (e.g. ",
+                    RequestField::Mass,
+                    " 1Msun) or a length in geometric units, e.g. 1e-3M"
+                ])),
         }
     }
 }

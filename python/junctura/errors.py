@@ -3,9 +3,25 @@ line:column (or the parameter) of the bad input, and ``hint`` says how to fix it
 
 
 class JuncturaError(Exception):
-    """Base class: ``message`` (with location), ``hint`` (or None); ``str(e)`` shows both."""
+    """Base class: ``message`` (with location), ``hint`` (or None); ``str(e)`` shows both.
+
+    The same facts as data, None where they do not apply: ``field`` (the argument, e.g. ``"radius"``) and
+    ``value`` (as text) of a refused argument; ``parameter`` and ``suggestion`` (the closest known name) of an
+    unknown parameter; ``radius`` and ``reason`` of a radius where no shell can sit (e.g. on a horizon);
+    ``file``, ``line`` and ``column`` of text that does not parse; ``path`` of a file that could not be read or
+    written."""
 
     kind = "error"
+    field = None
+    value = None
+    parameter = None
+    suggestion = None
+    radius = None
+    reason = None
+    file = None
+    line = None
+    column = None
+    path = None
 
     def __init__(self, message, hint=None):
         self.message = message

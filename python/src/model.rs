@@ -4,16 +4,16 @@
 
 use crate::errors::IntoPyResult;
 use crate::figure::Figure;
-use junctura::geodesic::{chain_report, crossing_report, Chain, CrossingRequest, Direction, Particle};
+use junctura::geodesic::{Chain, ChainRequest, CrossingRequest, Direction, Particle};
 use junctura::report::derive::{derive, State};
 use junctura::report::map::{check_size, map_cells, map_spec};
-use junctura::request::{parse_axis, parse_pair, range};
+use junctura::request::{parse_axis, parse_pair, range, RangeRequest};
 use junctura::scan::{CellClass, Summary};
 use junctura::scenario::Scenario;
 use junctura::statics::sweep::sweep_with_progress;
 use junctura::statics::tune::{tune_at_radius, tune_marginal};
 use junctura::statics::{find_static_radii, StaticsOptions};
-use junctura::Error;
+use junctura::{Error, RequestField};
 use numpy::{PyArray1, PyArrayMethods};
 use pyo3::prelude::*;
 use pyo3::types::PyDict;
@@ -161,8 +161,8 @@ impl Model {
     /// Survey both sides (`check`).
     #[pyo3(signature = (from_=None, to=None))]
     fn check<'py>(&self, py: Python<'py>, from_: Option<f64>, to: Option<f64>) -> PyResult<Bound<'py, PyDict>> {
-        let (lo, hi) = range(from_, to, junctura::metric::default_range(&self.s)).py(py)?;
-        let r = py.detach(|| junctura::survey::survey(&self.s, lo, hi));
+        let req = RangeRequest { from: from_, to };
+        let r = py.detach(|| junctura::survey::check(&self.s, &req)).py(py)?;
         bundle(py, &r, vec![])
     }
 
@@ -262,7 +262,7 @@ impl Model {
         to: Option<f64>,
         within: Option<&str>,
     ) -> PyResult<Bound<'py, PyDict>> {
-        let within = within.map(|w| parse_pair("within", w)).transpose().py(py)?;
+        let within = within.map(|w| parse_pair(RequestField::Within, w)).transpose().py(py)?;
         let opts = StaticsOptions::default();
         let s = &self.s;
         let r = if marginal {
@@ -302,7 +302,7 @@ impl Model {
         to: Option<f64>,
         progress: Option<Py<PyAny>>,
     ) -> PyResult<Bound<'py, PyDict>> {
-        let axis = parse_axis("vary", vary).py(py)?;
+        let axis = parse_axis(RequestField::Vary, vary).py(py)?;
         if axis.n > 100_000 {
             return Err(Error::input(format!("vary {vary}: N = {} values is more than a sweep needs", axis.n))
                 .with_hint("use at most 100000 values; for dense 2-D scans use map"))
@@ -453,7 +453,7 @@ impl Model {
             particle: if null { Particle::Null } else { Particle::Timelike },
             direction,
         };
-        let r = py.detach(|| crossing_report(&self.s, &req)).py(py)?;
+        let r = py.detach(|| junctura::geodesic::report(&self.s, &req)).py(py)?;
         bundle(py, &r, vec![])
     }
 }
@@ -482,12 +482,12 @@ fn evolve_adapter(
 ) -> PyResult<(junctura::dynamics::EvolveReport, Vec<(&'static str, junctura::plot::Figure)>)> {
     use junctura::dynamics::{evolve, EvolveOptions, Start};
     for (name, v) in [
-        ("radius", Some(radius)),
-        ("duration", Some(duration)),
-        ("kick", start.kick),
-        ("velocity", start.velocity),
-        ("sigma", start.sigma),
-        ("spread", ensemble.map(|e| e.1)),
+        (RequestField::Radius, Some(radius)),
+        (RequestField::Duration, Some(duration)),
+        (RequestField::Kick, start.kick),
+        (RequestField::Velocity, start.velocity),
+        (RequestField::Sigma, start.sigma),
+        (RequestField::Spread, ensemble.map(|e| e.1)),
     ] {
         if let Some(v) = v {
             junctura::request::value(name, v).py(py)?;
@@ -536,23 +536,13 @@ pub fn chain<'py>(
         (None, None) => Err(Error::input("chain needs a file path or its text")),
     }
     .py(py)?;
-    let n = crossings.unwrap_or(c.crossings);
-    let r = py.detach(|| chain_report(&c, n, mass, within)).py(py)?;
-    let thr_plot = match (r.run.threshold, r.unit.as_ref()) {
-        (Some(t), Some(u)) => Some(u.to_m(t)),
-        (t, _) => t,
-    };
-    let figs: Vec<(String, junctura::plot::Figure)> =
-        junctura::report::figures::chain_figures(&r.series, thr_plot, &r.provenance)
-            .into_iter()
-            .filter(|(_, fig)| fig.series.iter().any(|s| s.points.iter().any(|p| p.1.is_finite())))
-            .map(|(n, f)| (n.to_string(), f))
-            .collect();
+    let req = ChainRequest { crossings, mass: mass.map(String::from), within: within.map(String::from) };
+    let r = py.detach(|| junctura::geodesic::chain(&c, &req)).py(py)?;
     let d = PyDict::new(py);
     d.set_item("result", to_object(py, &r)?)?;
     d.set_item("csv", junctura::export::csv::chain(&r.run, &r.provenance, r.unit.as_ref()))?;
     let f = PyDict::new(py);
-    for (name, fig) in figs {
+    for (name, fig) in r.figures() {
         f.set_item(&name, Py::new(py, Figure::new(&name, fig))?)?;
     }
     d.set_item("figures", f)?;

@@ -2,7 +2,7 @@
 
 use super::common::{formats, print, Format};
 use junctura::export::{self, Item};
-use junctura::geodesic::{chain_report, Chain};
+use junctura::geodesic::{chain, Chain, ChainRequest};
 use junctura::output::{ensure_dir, warn, write_atomic};
 use junctura::Result;
 use std::path::PathBuf;
@@ -34,14 +34,13 @@ pub struct Args {
 
 pub fn run(args: Args) -> Result<()> {
     let fig_opts = args.figure.options()?;
-    let chain = Chain::load(&args.file)?;
-    let crossings = args.crossings.unwrap_or(chain.crossings);
-    let report = chain_report(&chain, crossings, args.mass.as_deref(), args.within.as_deref())?;
+    let file = Chain::load(&args.file)?;
+    let req = ChainRequest { crossings: args.crossings, mass: args.mass.clone(), within: args.within.clone() };
+    let report = chain(&file, &req)?;
     for w in &report.warnings {
         warn(w);
     }
-    let (unit, threshold, provenance) = (report.unit, report.run.threshold, report.provenance.clone());
-    let csv = export::csv::chain(&report.run, &provenance, unit.as_ref());
+    let csv = export::csv::chain(&report.run, &report.provenance, report.unit.as_ref());
     let json = export::json::pretty(&report);
     if let Some(dir) = &args.out {
         ensure_dir(dir)?;
@@ -51,14 +50,7 @@ pub fn run(args: Args) -> Result<()> {
             write_atomic(&p, body.as_bytes())?;
             eprintln!("wrote {}", p.display());
         }
-        let thr_plot = match (threshold, unit.as_ref()) {
-            (Some(t), Some(u)) => Some(u.to_m(t)),
-            (t, _) => t,
-        };
-        for (name, mut fig) in junctura::report::figures::chain_figures(&report.series, thr_plot, &provenance) {
-            if fig.series.iter().all(|s| s.points.iter().all(|p| !p.1.is_finite())) {
-                continue;
-            }
+        for (name, mut fig) in report.figures() {
             fig_opts.apply(&mut fig, junctura::plot::StyleName::Classic);
             for p in junctura::plot::write_figure(&fig, dir, &format!("{stem}_{name}"))? {
                 eprintln!("wrote {}", p.display());

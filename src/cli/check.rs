@@ -2,7 +2,7 @@
 
 use super::common::{formats, print, Format, RangeArgs, ScenarioArgs};
 use junctura::export::Item;
-use junctura::survey::survey;
+use junctura::survey::check;
 use junctura::Result;
 
 /// The formats of `check`.
@@ -22,7 +22,6 @@ pub struct Args {
 
 pub fn run(args: Args) -> Result<()> {
     let s = args.scenario.load()?;
-    let (lo, hi) = args.range.resolve(&s)?;
-    let report = survey(&s, lo, hi);
+    let report = check(&s, &args.range.request())?;
     print(args.format, &Item::Survey(&report))
 }

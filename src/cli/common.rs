@@ -5,7 +5,9 @@ use junctura::scenario::Scenario;
 use junctura::Result;
 use std::path::PathBuf;
 
+use junctura::request::RangeRequest;
 pub use junctura::request::{parse_axis, parse_pair, range};
+use junctura::{Error, RequestField};
 
 pub use junctura::export::Format;
 
@@ -58,10 +60,64 @@ pub struct RangeArgs {
 }
 
 impl RangeArgs {
+    /// The range as a library request.
+    pub fn request(&self) -> RangeRequest {
+        RangeRequest { from: self.from, to: self.to }
+    }
+
     /// The checked range, with the scenario's default range for missing ends.
     pub fn resolve(&self, s: &Scenario) -> Result<(f64, f64)> {
-        range(self.from, self.to, junctura::metric::default_range(s))
+        self.request().resolve(s)
     }
+}
+
+/// The option that sets each request field: the one table from the library's field names to the command line.
+pub fn flag(field: RequestField) -> &'static str {
+    use RequestField::*;
+    match field {
+        From => "--from",
+        To => "--to",
+        Radius => "--radius",
+        Velocity => "--velocity",
+        Acceleration => "--acceleration",
+        Energy => "--energy",
+        ShellVelocity => "--shell-velocity",
+        Direction => "--direction",
+        Kick => "--kick",
+        Sigma => "--sigma",
+        Duration => "--duration",
+        Spread => "--spread",
+        Ensemble => "--ensemble",
+        Crossings => "--crossings",
+        Mass => "--mass",
+        Within => "--within",
+        X => "--x",
+        Y => "--y",
+        Beta2 => "--beta2",
+        Vary => "--vary",
+        Family => "--family",
+        Solve => "--solve",
+        XLim => "--xlim",
+        YLim => "--ylim",
+        Shard => "--shard",
+        FromStatic => "--from-static",
+        StopAtHorizon => "--stop-at-horizon",
+        State => "--state",
+        Width => "--width",
+        Out => "--out",
+        LogX => "--log-x",
+        LogY => "--log-y",
+        Summary => "--summary",
+        Set => "--set",
+        Format => "--format",
+        // The enum is non-exhaustive: a field added later prints by its library name until it gets a row here.
+        other => other.name(),
+    }
+}
+
+/// An error as the command line prints it: request fields named by their options ([`flag`]).
+pub fn error_text(e: &Error) -> String {
+    e.render(&flag)
 }
 
 /// Figure control shared by the commands that write figures.
@@ -149,8 +205,8 @@ impl FigureArgs {
             style,
             width_cm,
             aspect: self.aspect,
-            x_limits: self.xlim.as_deref().map(|s| parse_pair("--xlim", s)).transpose()?,
-            y_limits: self.ylim.as_deref().map(|s| parse_pair("--ylim", s)).transpose()?,
+            x_limits: self.xlim.as_deref().map(|s| parse_pair(RequestField::XLim, s)).transpose()?,
+            y_limits: self.ylim.as_deref().map(|s| parse_pair(RequestField::YLim, s)).transpose()?,
             log_x: self.log_x,
             log_y: self.log_y,
             x_label: self.xlabel.clone(),

@@ -37,8 +37,9 @@ pub struct Args {
 
 pub fn run(args: Args) -> Result<()> {
     let s = args.scenario.load()?;
-    for (name, v) in [("--radius", args.radius), ("--velocity", args.velocity), ("--acceleration", args.acceleration)] {
-        junctura::request::value(name, v)?;
+    use junctura::RequestField as F;
+    for (field, v) in [(F::Radius, args.radius), (F::Velocity, args.velocity), (F::Acceleration, args.acceleration)] {
+        junctura::request::value(field, v)?;
     }
     if args.radius <= 0.0 {
         return Err(Error::input(format!("--radius {}: the areal radius must be positive", args.radius)));

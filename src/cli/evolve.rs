@@ -73,16 +73,17 @@ pub enum Direction {
 
 pub fn run(a: EvolveArgs) -> Result<()> {
     let s = a.scenario.load()?;
-    for (flag, v) in [
-        ("--radius", Some(a.radius)),
-        ("--duration", Some(a.duration)),
-        ("--kick", a.kick),
-        ("--velocity", a.velocity),
-        ("--sigma", a.sigma),
-        ("--spread", a.spread),
+    use junctura::RequestField as F;
+    for (field, v) in [
+        (F::Radius, Some(a.radius)),
+        (F::Duration, Some(a.duration)),
+        (F::Kick, a.kick),
+        (F::Velocity, a.velocity),
+        (F::Sigma, a.sigma),
+        (F::Spread, a.spread),
     ] {
         if let Some(v) = v {
-            junctura::request::value(flag, v)?;
+            junctura::request::value(field, v)?;
         }
     }
     let outward = a.direction.map(|d| d == Direction::Outward);

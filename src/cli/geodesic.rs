@@ -3,7 +3,7 @@
 use super::common::{formats, print, Format, ScenarioArgs};
 use clap::ValueEnum;
 use junctura::export::Item;
-use junctura::geodesic::{crossing_report, CrossingRequest, Direction, Particle};
+use junctura::geodesic::{CrossingRequest, Direction, Particle};
 use junctura::Result;
 
 /// Radial direction on the minus side.
@@ -42,9 +42,6 @@ pub struct Args {
 
 pub fn run(args: Args) -> Result<()> {
     let s = args.scenario.load()?;
-    for (flag, v) in [("--radius", args.radius), ("--energy", args.energy), ("--shell-velocity", args.shell_velocity)] {
-        junctura::request::value(flag, v)?;
-    }
     let particle = if args.null { Particle::Null } else { Particle::Timelike };
     let direction = args.direction.map(|d| match d {
         DirectionArg::Inward => Direction::Inward,
@@ -57,6 +54,6 @@ pub fn run(args: Args) -> Result<()> {
         particle,
         direction,
     };
-    let report = crossing_report(&s, &req)?;
+    let report = junctura::geodesic::report(&s, &req)?;
     print(args.format, &Item::Crossing(&report))
 }

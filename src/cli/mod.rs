@@ -104,7 +104,7 @@ pub fn run() -> i32 {
     match result {
         Ok(()) => 0,
         Err(e) => {
-            eprintln!("error: {}", junctura::text::terminal(&e.to_string()));
+            eprintln!("error: {}", junctura::text::terminal(&common::error_text(&e)));
             e.kind.exit_code()
         }
     }

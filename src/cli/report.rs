@@ -42,7 +42,8 @@ fn options_with(
     family: Option<&str>,
     figure: &FigureArgs,
 ) -> Result<ReportOptions> {
-    let vary = vary.map(|v| parse_axis("--vary", v)).transpose()?.map(|a| (a.name, a.lo, a.hi, a.n));
+    let vary =
+        vary.map(|v| parse_axis(junctura::RequestField::Vary, v)).transpose()?.map(|a| (a.name, a.lo, a.hi, a.n));
     let range = match (from, to) {
         (None, None) => None,
         (lo, hi) => Some(range(lo, hi, (lo.unwrap_or(0.0), hi.unwrap_or(0.0)))?),

@@ -73,7 +73,7 @@ pub struct TuneArgs {
 
 pub fn run_tune(a: TuneArgs) -> Result<()> {
     let s = a.scenario.load()?;
-    let within = a.within.as_deref().map(|w| parse_pair("--within", w)).transpose()?;
+    let within = a.within.as_deref().map(|w| parse_pair(junctura::RequestField::Within, w)).transpose()?;
     let opts = StaticsOptions::default();
     let rep = if a.marginal {
         let (lo, hi) = match (a.from, a.to) {
@@ -88,7 +88,7 @@ pub fn run_tune(a: TuneArgs) -> Result<()> {
         let r = a.radius.ok_or_else(|| {
             Error::input("tune needs --radius R or --marginal").with_hint("e.g. tune SCENARIO --solve w --radius 4")
         })?;
-        junctura::request::value("--radius", r)?;
+        junctura::request::value(junctura::RequestField::Radius, r)?;
         if !(r.is_finite() && r > 0.0) {
             return Err(Error::input(format!("--radius {r}: the areal radius must be a positive number")));
         }
@@ -114,7 +114,7 @@ pub struct SweepArgs {
 
 pub fn run_sweep(a: SweepArgs) -> Result<()> {
     let s = a.scenario.load()?;
-    let axis = parse_axis("--vary", &a.vary)?;
+    let axis = parse_axis(junctura::RequestField::Vary, &a.vary)?;
     if axis.n > 100_000 {
         return Err(Error::input(format!("--vary {}: N = {} values is more than a sweep needs", a.vary, axis.n))
             .with_hint("use at most 100000 values; for dense 2-D scans use `junctura map`"));

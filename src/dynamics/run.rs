@@ -5,11 +5,12 @@
 use super::analysis::{ensemble_kicks, fate, period, Ensemble, Fate, Member, Period};
 use super::integrate::{integrate, Event, EvolveOptions, Trajectory};
 use super::motion::Motion;
-use crate::error::{Error, Result};
+use crate::error::{Error, ErrorKind, RequestField as F, Result};
 use crate::junction::potential::Law;
 use crate::junction::stability::{marginal_scale, MARGINAL_TOL};
 use crate::junction::{admissible, Junction};
 use crate::metric::RegionKind;
+use crate::phrase;
 use crate::scenario::Which;
 use crate::scenario::{Scenario, ShellKind};
 use crate::statics::{find_static_radii, residual, StaticsOptions};
@@ -183,13 +184,14 @@ pub struct EvolveReport {
 pub fn static_start(s: &Scenario, radius: f64, notes: &mut Vec<String>) -> Result<f64> {
     check_evolvable(s)?;
     if !(radius.is_finite() && radius > 0.0) {
-        return Err(Error::input(format!("--radius {radius}: the areal radius must be a positive number")));
+        let message = phrase![F::Radius, format!(" {radius}: the areal radius must be a positive number")];
+        return Err(Error::request(ErrorKind::Input, F::Radius, radius, message));
     }
     let j = Junction::new(s);
-    let hint = format!(
-        "run `junctura statics {}` to list the static radii of the law and pass one to --radius",
-        s.origin.label()
-    );
+    let hint = phrase![
+        format!("run `junctura statics {}` to list the static radii of the law and pass one to ", s.origin.label()),
+        F::Radius
+    ];
     let static_ok = |a: f64| -> Option<f64> {
         let (f, sv) = residual(&j, a)?;
         let scale = sv.stress.pressure().abs() + sv.stress.sigma().abs();
@@ -198,7 +200,7 @@ pub fn static_start(s: &Scenario, radius: f64, notes: &mut Vec<String>) -> Resul
     if static_ok(radius).is_some() {
         return Ok(radius);
     }
-    j.static_values(radius).map_err(|e| e.context(format!("--radius {radius}")))?;
+    j.static_values(radius).map_err(|e| e.context_phrase(phrase![F::Radius, format!(" {radius}")]))?;
     let near = find_static_radii(s, radius * (1.0 - SNAP_TOL), radius * (1.0 + SNAP_TOL), &StaticsOptions::default())?;
     match near.static_radii.as_slice() {
         [one] if static_ok(one.radius).is_some() => {
@@ -207,32 +209,37 @@ pub fn static_start(s: &Scenario, radius: f64, notes: &mut Vec<String>) -> Resul
         }
         _ => {
             let f = residual(&j, radius).map(|(f, _)| f).unwrap_or(f64::NAN);
-            Err(Error::input(format!(
-                "--radius {radius} is not a static radius of the law p = {}: p0 - P(sigma0) = {f:.3e} there",
-                near.equation_of_state
-            ))
-            .with_hint(hint))
+            let message = phrase![
+                F::Radius,
+                format!(
+                    " {radius} is not a static radius of the law p = {}: p0 - P(sigma0) = {f:.3e} there",
+                    near.equation_of_state
+                )
+            ];
+            Err(Error::request(ErrorKind::Input, F::Radius, radius, message).with_hint_phrase(hint))
         }
     }
 }
 
 /// The starting state for `start` about the static radius `a0`.
 pub fn initial_state(j: &Junction<f64>, a0: f64, start: Start) -> Result<Initial> {
-    let (r, v, what) = match start {
-        Start::Kick(da) => (a0 + da, 0.0, format!("--kick {da}")),
-        Start::Velocity(v) => (a0, v, format!("--velocity {v}")),
+    let (r, v, field, given) = match start {
+        Start::Kick(da) => (a0 + da, 0.0, F::Kick, da),
+        Start::Velocity(v) => (a0, v, F::Velocity, v),
         Start::Moving(_) | Start::Sigma { .. } => return needs_static_radius(),
     };
+    let what = phrase![field, format!(" {given}")];
     if !(r.is_finite() && v.is_finite() && r > 0.0) {
-        return Err(Error::input(format!("{what}: the starting radius {r} must be a positive number"))
+        let message = what.clone().then(phrase![format!(": the starting radius {r} must be a positive number")]);
+        return Err(Error::request(ErrorKind::Input, field, given, message)
             .with_hint("use a kick smaller than the static radius"));
     }
     // The static-shell checks (regions, horizons) apply to the starting radius too.
     j.static_values(r).map_err(|e| {
-        e.context(format!("{what}: starting radius {r}"))
+        e.context_phrase(what.clone().then(phrase![format!(": starting radius {r}")]))
             .with_hint("choose a smaller kick that keeps the shell between the horizons")
     })?;
-    let st = j.stress(r, v, 0.0).map_err(|e| e.context(what))?;
+    let st = j.stress(r, v, 0.0).map_err(|e| e.context_phrase(what))?;
     Ok(Initial { radius: r, rdot: v, sigma: st.sigma() })
 }
 
@@ -313,66 +320,85 @@ fn check_evolvable(s: &Scenario) -> Result<()> {
 pub fn initial_from_data(s: &Scenario, j: &Junction<f64>, r: f64, start: Start) -> Result<Initial> {
     check_evolvable(s)?;
     if !(r.is_finite() && r > 0.0) {
-        return Err(Error::input(format!("--radius {r}: the areal radius must be a positive number"))
-            .with_hint("e.g. --radius 10"));
+        let message = phrase![F::Radius, format!(" {r}: the areal radius must be a positive number")];
+        return Err(Error::request(ErrorKind::Input, F::Radius, r, message).with_hint_phrase(phrase![
+            "e.g. ",
+            F::Radius,
+            " 10"
+        ]));
     }
+    // A refused start `what` (field and value) at this radius: "<what> at <radius> r<rest>".
+    let at_radius = |what: (F, f64), rest: String| {
+        let message = phrase![what.0, format!(" {} at ", what.1), F::Radius, format!(" {r}{rest}")];
+        Error::request(ErrorKind::Input, what.0, what.1, message)
+    };
     let jets = [j.jet(Which::Minus, r), j.jet(Which::Plus, r)];
     for (w, jet) in [Which::Minus, Which::Plus].into_iter().zip(&jets) {
-        j.check_finite_jet(w, r, jet, 1).map_err(|e| e.context(format!("--radius {r}")))?;
+        j.check_finite_jet(w, r, jet, 1).map_err(|e| e.context_phrase(phrase![F::Radius, format!(" {r}")]))?;
         if admissible::near_horizon(r, jet.b[0], jet.b[1], crate::junction::HORIZON_TOL) {
-            return Err(Error::input(format!(
-                "--radius {r} is on (or numerically within {:.0e} of) a horizon of the {w} side: B = {:e}",
-                crate::junction::HORIZON_TOL,
-                jet.b[0]
-            ))
-            .with_hint("start slightly off the horizon; the motion itself crosses horizons"));
+            let message = phrase![
+                F::Radius,
+                format!(
+                    " {r} is on (or numerically within {:.0e} of) a horizon of the {w} side: B = {:e}",
+                    crate::junction::HORIZON_TOL,
+                    jet.b[0]
+                )
+            ];
+            return Err(Error::request(ErrorKind::Input, F::Radius, r, message)
+                .with_hint("start slightly off the horizon; the motion itself crosses horizons"));
         }
         if let Err(why) = admissible::signature(w, jet.a[0], jet.b[0], jet.b[1]) {
-            return Err(Error::input(format!("--radius {r}: {why}")).with_hint(why.hint()));
+            let message = phrase![F::Radius, format!(" {r}: {why}")];
+            return Err(Error::request(ErrorKind::Input, F::Radius, r, message).with_hint(why.hint()));
         }
     }
     let side = |w: Which| s.side(w);
     let (rdot, sigma, what) = match start {
         Start::Moving(v) => {
-            let what = format!("--velocity {v}");
+            let what = (F::Velocity, v);
             if !v.is_finite() {
-                return Err(Error::input(format!("{what}: the velocity must be a finite number")));
+                let message = phrase![F::Velocity, format!(" {v}: the velocity must be a finite number")];
+                return Err(Error::request(ErrorKind::Input, F::Velocity, v, message));
             }
             for (w, jet) in [Which::Minus, Which::Plus].into_iter().zip(&jets) {
                 let w2 = v * v + jet.b[0];
                 if w2 <= 0.0 {
-                    return Err(Error::input(format!(
-                        "{what} at --radius {r}: Rdot^2 + B = {w2:.6e} <= 0 on the {w} side (a T-region, B = {:.6e}): no timelike shell state exists there",
+                    return Err(at_radius(what, format!(
+                        ": Rdot^2 + B = {w2:.6e} <= 0 on the {w} side (a T-region, B = {:.6e}): no timelike shell state exists there",
                         jet.b[0]
                     ))
                     .with_hint(format!("inside a horizon a timelike shell must move with |dR/dtau| > sqrt(-B) = {:.6}", (-jet.b[0]).sqrt())));
                 }
                 if jet.b[0] < 0.0 && side(w).explicit_normal_sign.is_none() {
-                    return Err(Error::input(format!(
-                        "{what} at --radius {r}: the {w} side is a T-region there (B = {:.6e}), where keep does not fix the sign of n^r",
+                    return Err(at_radius(what, format!(
+                        ": the {w} side is a T-region there (B = {:.6e}), where keep does not fix the sign of n^r",
                         jet.b[0]
                     ))
-                    .with_hint(format!("give --sigma S instead (the junction condition then fixes the normals), or set normal_sign = +1 or -1 on [{w}]")));
+                    .with_hint_phrase(phrase!["give ", F::Sigma, format!(" S instead (the junction condition then fixes the normals), or set normal_sign = +1 or -1 on [{w}]")]));
                 }
             }
-            let st = j.stress_with_jets(&jets[0], &jets[1], r, v, 0.0).map_err(|e| e.context(what.clone()))?;
+            let st = j
+                .stress_with_jets(&jets[0], &jets[1], r, v, 0.0)
+                .map_err(|e| e.context_phrase(phrase![F::Velocity, format!(" {v}")]))?;
             (v, st.sigma(), what)
         }
         Start::Sigma { sigma, outward } => {
-            let what = format!("--sigma {sigma}");
+            let what = (F::Sigma, sigma);
             if !(sigma.is_finite() && sigma != 0.0) {
-                return Err(Error::input(format!(
-                    "{what}: the surface energy density must be a finite, non-zero number"
-                ))
-                .with_hint("sigma = 0 leaves the junction condition without a solution unless both sides agree"));
+                let message = phrase![
+                    F::Sigma,
+                    format!(" {sigma}: the surface energy density must be a finite, non-zero number")
+                ];
+                return Err(Error::request(ErrorKind::Input, F::Sigma, sigma, message)
+                    .with_hint("sigma = 0 leaves the junction condition without a solution unless both sides agree"));
             }
             let v = j.potential_sigma(r, sigma);
             let scale = 1.0 + jets[0].b[0].abs() + jets[1].b[0].abs();
             if v > TURNING_TOL * scale {
-                return Err(Error::input(format!(
-                    "{what} at --radius {r}: V(R, sigma) = {v:.6e} > 0, so Rdot^2 = -V < 0: no shell state exists there (the energy constraint Rdot^2 + V = 0 cannot hold)"
+                return Err(at_radius(what, format!(
+                    ": V(R, sigma) = {v:.6e} > 0, so Rdot^2 = -V < 0: no shell state exists there (the energy constraint Rdot^2 + V = 0 cannot hold)"
                 ))
-                .with_hint("choose a radius inside the allowed region of this sigma, or give --velocity instead (sigma then follows from the junction condition)"));
+                .with_hint_phrase(phrase!["choose a radius inside the allowed region of this sigma, or give ", F::Velocity, " instead (sigma then follows from the junction condition)"]));
             }
             let speed = if v.abs() <= TURNING_TOL * scale { 0.0 } else { (-v).sqrt() };
             let rdot = match (speed > 0.0, outward) {
@@ -380,10 +406,17 @@ pub fn initial_from_data(s: &Scenario, j: &Junction<f64>, r: f64, start: Start) 
                 (true, Some(true)) => speed,
                 (true, Some(false)) => -speed,
                 (true, None) => {
-                    return Err(Error::input(format!(
-                    "{what} at --radius {r}: the energy constraint gives |dR/dtau| = {speed:.6}, but not the direction"
-                ))
-                    .with_hint("add --direction inward or --direction outward"))
+                    return Err(at_radius(
+                        what,
+                        format!(": the energy constraint gives |dR/dtau| = {speed:.6}, but not the direction"),
+                    )
+                    .with_hint_phrase(phrase![
+                        "add ",
+                        F::Direction,
+                        " inward or ",
+                        F::Direction,
+                        " outward"
+                    ]))
                 }
             };
             (rdot, sigma, what)
@@ -401,25 +434,29 @@ pub fn initial_from_data(s: &Scenario, j: &Junction<f64>, r: f64, start: Start) 
                 Some(_) => format!("normal_sign = {nu:+}"),
                 None => format!("keep = \"{}\" needs n^r {} 0", side(w).keep.name(), if nu > 0.0 { ">" } else { "<" }),
             };
-            return Err(Error::input(format!(
-                "{what} at --radius {r}: the junction condition puts n^r = {:.6e} on the {w} side, but {why}: this state belongs to the other branch of the junction condition",
+            return Err(at_radius(what, format!(
+                ": the junction condition puts n^r = {:.6e} on the {w} side, but {why}: this state belongs to the other branch of the junction condition",
                 n.n_r[i]
             ))
-            .with_hint("change the sign of sigma, or the side's keep/normal_sign; with --velocity the branch is chosen from keep"));
+            .with_hint_phrase(phrase!["change the sign of sigma, or the side's keep/normal_sign; with ", F::Velocity, " the branch is chosen from keep"]));
         }
     }
     if !j.eos_at(sigma, |t| t).is_some_and(f64::is_finite) {
-        return Err(Error::input(format!(
-            "{what} at --radius {r}: the equation of state is undefined at the starting sigma = {sigma:.6e}"
-        ))
+        return Err(at_radius(
+            what,
+            format!(": the equation of state is undefined at the starting sigma = {sigma:.6e}"),
+        )
         .with_hint("the law p(sigma) must be finite at the start"));
     }
     Ok(Initial { radius: r, rdot, sigma })
 }
 
 fn needs_static_radius<T>() -> Result<T> {
-    Err(Error::input("a static-radius start (--kick, --from-static) needs a static radius")
-        .with_hint("use --kick DA or --from-static"))
+    Err(Error::phrased(
+        ErrorKind::Input,
+        phrase!["a static-radius start (", F::Kick, ", ", F::FromStatic, ") needs a static radius"],
+    )
+    .with_hint_phrase(phrase!["use ", F::Kick, " DA or ", F::FromStatic]))
 }
 
 fn region_of(b: f64) -> Option<RegionKind> {
@@ -466,21 +503,42 @@ pub fn evolve(
 ) -> Result<EvolveReport> {
     let mut notes = Vec::new();
     if !(duration.is_finite() && duration > 0.0) {
-        return Err(Error::input(format!("--duration {duration}: the proper-time duration must be a positive number"))
-            .with_hint("e.g. --duration 200"));
+        let message = phrase![F::Duration, format!(" {duration}: the proper-time duration must be a positive number")];
+        return Err(Error::request(ErrorKind::Input, F::Duration, duration, message).with_hint_phrase(phrase![
+            "e.g. ",
+            F::Duration,
+            " 200"
+        ]));
     }
     if let Some((n, spread)) = ens {
         if !start.is_static() {
-            return Err(Error::input("--ensemble: an ensemble of kicks needs a static-radius start")
-                .with_hint("use --kick DA (or --from-static) with --ensemble"));
+            let message = phrase![F::Ensemble, ": an ensemble of kicks needs a static-radius start"];
+            return Err(Error::request(ErrorKind::Input, F::Ensemble, n, message).with_hint_phrase(phrase![
+                "use ",
+                F::Kick,
+                " DA (or ",
+                F::FromStatic,
+                ") with ",
+                F::Ensemble
+            ]));
         }
         if !(2..=100_000).contains(&n) {
-            return Err(Error::input(format!("--ensemble {n}: give between 2 and 100000 members"))
-                .with_hint("e.g. --ensemble 64 --spread 0.2"));
+            let message = phrase![F::Ensemble, format!(" {n}: give between 2 and 100000 members")];
+            return Err(Error::request(ErrorKind::Input, F::Ensemble, n, message).with_hint_phrase(phrase![
+                "e.g. ",
+                F::Ensemble,
+                " 64 ",
+                F::Spread,
+                " 0.2"
+            ]));
         }
         if !(spread.is_finite() && spread > 0.0) {
-            return Err(Error::input(format!("--spread {spread}: the kick spread must be a positive number"))
-                .with_hint("e.g. --spread 0.2"));
+            let message = phrase![F::Spread, format!(" {spread}: the kick spread must be a positive number")];
+            return Err(Error::request(ErrorKind::Input, F::Spread, spread, message).with_hint_phrase(phrase![
+                "e.g. ",
+                F::Spread,
+                " 0.2"
+            ]));
         }
     }
     let j = Junction::new(s);

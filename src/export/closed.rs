@@ -16,18 +16,26 @@ pub const PAGE_PT: f64 = 17.0 / 2.54 * 72.27;
 
 /// A LaTeX text width (`--width`): `column` (8.5 cm), `page` (17 cm) or centimetres, into TeX points.
 pub fn parse_width(w: &str) -> crate::Result<f64> {
+    use crate::{error::ErrorKind, phrase, RequestField::Width};
     match w {
         "column" => Ok(COLUMN_PT),
         "page" => Ok(PAGE_PT),
         other => {
             let cm: f64 = other.trim_end_matches("cm").parse().map_err(|_| {
-                crate::Error::input(format!("--width {other}: not `column`, `page` or a width in cm"))
-                    .with_hint("e.g. --width column, --width page, --width 12.5")
+                let message = phrase![Width, format!(" {other}: not `column`, `page` or a width in cm")];
+                crate::Error::request(ErrorKind::Input, Width, other, message).with_hint_phrase(phrase![
+                    "e.g. ",
+                    Width,
+                    " column, ",
+                    Width,
+                    " page, ",
+                    Width,
+                    " 12.5"
+                ])
             })?;
             if !(cm.is_finite() && (3.0..=100.0).contains(&cm)) {
-                return Err(crate::Error::input(format!(
-                    "--width {other}: a text width between 3 and 100 cm is expected"
-                )));
+                let message = phrase![Width, format!(" {other}: a text width between 3 and 100 cm is expected")];
+                return Err(crate::Error::request(ErrorKind::Input, Width, other, message));
             }
             Ok(cm / 2.54 * 72.27)
         }

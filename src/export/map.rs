@@ -112,8 +112,10 @@ pub fn parse_rows(text: &str, file: &str) -> Result<Vec<Cell>> {
         }
         let f: Vec<&str> = line.split(',').collect();
         let bad = || {
-            Error::input(format!("{file}:{}: not a map data row", ln + 1))
-                .with_hint("merge takes the part files written by map --shard")
+            Error::input(format!("{file}:{}: not a map data row", ln + 1)).with_hint_phrase(crate::phrase![
+                "merge takes the part files written by map ",
+                crate::RequestField::Shard
+            ])
         };
         if f.len() != 16 + 2 * MAX_ROOTS {
             return Err(bad());
@@ -234,12 +236,16 @@ pub fn verify_part(
     body: &str,
     file: &str,
 ) -> Result<Vec<Cell>> {
-    let hint = "run this shard again with map --shard K/N; part files must not be edited";
+    let hint = crate::phrase![
+        "run this shard again with map ",
+        crate::RequestField::Shard,
+        " K/N; part files must not be edited"
+    ];
     if m.data_sha256.is_empty() {
         return Err(Error::input(format!(
             "{file}: the part metadata has no content hash (an older junctura wrote it)"
         ))
-        .with_hint(hint));
+        .with_hint_phrase(hint.clone()));
     }
     let mut d = DataDigest::default();
     d.add(body);
@@ -251,17 +257,18 @@ pub fn verify_part(
              (truncated, extended or from another map)",
             m.data_rows, lines.start, lines.end
         ))
-        .with_hint(hint));
+        .with_hint_phrase(hint.clone()));
     }
     if sha != m.data_sha256 {
         return Err(Error::input(format!(
             "{file}: the data rows do not match the SHA-256 in the part metadata (the file was changed or swapped)"
         ))
-        .with_hint(hint));
+        .with_hint_phrase(hint.clone()));
     }
     let cells = parse_rows(body, file)?;
     if cells.len() as u64 != expected {
-        return Err(Error::input(format!("{file}: {} map rows, expected {expected}", cells.len())).with_hint(hint));
+        return Err(Error::input(format!("{file}: {} map rows, expected {expected}", cells.len()))
+            .with_hint_phrase(hint.clone()));
     }
     let mut k = 0;
     for line in lines.clone() {
@@ -275,7 +282,7 @@ pub fn verify_part(
                     c.ix,
                     c.iy
                 ))
-                .with_hint(hint));
+                .with_hint_phrase(hint.clone()));
             }
             k += 1;
         }

@@ -181,7 +181,9 @@ pub fn render(format: Format, item: &Item<'_>) -> crate::Result<String> {
     format.renderer().render(item).ok_or_else(|| {
         let offered: Vec<&str> =
             Format::ALL.into_iter().filter(|f| f.renderer().render(item).is_some()).map(Format::name).collect();
-        crate::Error::input(format!("--format {format}: `{}` does not offer it", item.command()))
+        let message =
+            crate::phrase![crate::RequestField::Format, format!(" {format}: `{}` does not offer it", item.command())];
+        crate::Error::request(crate::ErrorKind::Input, crate::RequestField::Format, format, message)
             .with_hint(format!("use one of: {}", offered.join(", ")))
     })
 }

@@ -66,30 +66,35 @@ impl Listing {
 /// Check every option against the scenario before the first file is written, so a bad request leaves no
 /// partial report behind.
 pub fn check_options(s: &Scenario, opts: &ReportOptions) -> Result<()> {
-    let spacelike = |opt: &str, name: &str| {
-        Error::input(format!("{opt} {name}: reports of spacelike shells have no families or sweeps"))
-            .with_hint(format!("leave out {opt}"))
+    use crate::error::ErrorKind::Input;
+    use crate::phrase;
+    use crate::RequestField::{Family, Vary};
+    let spacelike = |opt: crate::RequestField, name: &str| {
+        let message = phrase![opt, format!(" {name}: reports of spacelike shells have no families or sweeps")];
+        Error::request(Input, opt, name, message).with_hint_phrase(phrase!["leave out ", opt])
     };
     if let Some((name, _)) = &opts.family {
-        s.params.index(name).map_err(|e| e.context(format!("--family {name}")))?;
+        s.params.index(name).map_err(|e| e.context_phrase(phrase![Family, format!(" {name}")]))?;
         if s.shell.kind == ShellKind::Spacelike {
-            return Err(spacelike("--family", name));
+            return Err(spacelike(Family, name));
         }
     }
     if let Some((name, _, _, n)) = &opts.vary {
-        s.params.index(name).map_err(|e| e.context(format!("--vary {name}")))?;
+        s.params.index(name).map_err(|e| e.context_phrase(phrase![Vary, format!(" {name}")]))?;
         if s.shell.kind == ShellKind::Spacelike {
-            return Err(spacelike("--vary", name));
+            return Err(spacelike(Vary, name));
         }
         if s.shell.eos.is_none() {
-            return Err(Error::input(format!(
-                "--vary {name}: the sweep of static radii needs an equation of state, and the scenario has none"
-            ))
-            .with_hint("add [shell] pressure = \"...\" to the scenario, or leave out --vary"));
+            let message = phrase![
+                Vary,
+                format!(" {name}: the sweep of static radii needs an equation of state, and the scenario has none")
+            ];
+            return Err(Error::request(Input, Vary, name, message)
+                .with_hint_phrase(phrase!["add [shell] pressure = \"...\" to the scenario, or leave out ", Vary]));
         }
         if *n > 100_000 {
-            return Err(Error::input(format!("--vary {name}: N = {n} values is more than a sweep needs"))
-                .with_hint("use at most 100000 values"));
+            let message = phrase![Vary, format!(" {name}: N = {n} values is more than a sweep needs")];
+            return Err(Error::request(Input, Vary, name, message).with_hint("use at most 100000 values"));
         }
     }
     Ok(())
@@ -152,7 +157,9 @@ fn family_part(
     let (mut flo, mut fhi) = (lo, hi);
     for &v in values {
         let mut sc = s.clone();
-        sc.params.set(name, v).map_err(|e| e.context(format!("--family {name}")))?;
+        sc.params
+            .set(name, v)
+            .map_err(|e| e.context_phrase(crate::phrase![crate::RequestField::Family, format!(" {name}")]))?;
         if let Some((a, b)) = plot_range(&sc) {
             flo = flo.min(a);
             fhi = fhi.max(b);
@@ -172,7 +179,9 @@ fn family_part(
     let mut panels = Vec::new();
     for &v in values {
         let mut sc = s.clone();
-        sc.params.set(name, v).map_err(|e| e.context(format!("--family {name}")))?;
+        sc.params
+            .set(name, v)
+            .map_err(|e| e.context_phrase(crate::phrase![crate::RequestField::Family, format!(" {name}")]))?;
         let x = Axis::new(&sc, "radius", flo, fhi, (nx / 2).max(20))?;
         let y = Axis::new(&sc, "beta2", -3.0, 3.0, (ny / 2).max(20))?;
         let spec = MapSpec::new(&sc, x, y, None, (flo, fhi))?;

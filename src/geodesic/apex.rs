@@ -192,7 +192,11 @@ fn series_apex(fns: &SideFns, energy_sq: f64, h: f64, quad: &QuadOptions) -> Res
         return Err(Error::numerical(format!(
             "r_max - r_h = {delta:e} (E^2 = {energy_sq:e}) is below the range of f64 numbers"
         ))
-        .with_hint("the orbit hugs the horizon closer than f64 can carry; stop the chain earlier (--crossings)"));
+        .with_hint_phrase(crate::phrase![
+            "the orbit hugs the horizon closer than f64 can carry; stop the chain earlier (",
+            crate::RequestField::Crossings,
+            ")"
+        ]));
     }
     if !(delta.is_finite() && delta >= 0.0) {
         return Err(Error::numerical(format!(

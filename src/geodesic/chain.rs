@@ -121,8 +121,13 @@ impl Chain {
         let hint =
             "see the chain file format in the README (name, crossings, [particle] energy, [[stage]], [cycle] multiply)";
         let raw: RawChain = toml::from_str(text).map_err(|e| {
-            let at = e.span().map(|s| line_col(text, s.start)).map(|(l, c)| format!(":{l}:{c}")).unwrap_or_default();
-            Error::input(format!("{file}{at}: {}", e.message().trim())).with_hint(hint)
+            let lc = e.span().map(|s| line_col(text, s.start));
+            let at = lc.map(|(l, c)| format!(":{l}:{c}")).unwrap_or_default();
+            let problem = match lc {
+                Some((line, column)) => crate::Problem::Parse { file: file.clone(), line, column },
+                None => crate::Problem::Other,
+            };
+            Error::input(format!("{file}{at}: {}", e.message().trim())).with_hint(hint).with_problem(problem)
         })?;
         if !(raw.particle.energy.is_finite() && raw.particle.energy > 0.0) {
             return Err(Error::input(format!("{file}: [particle] energy = {} must be positive", raw.particle.energy))

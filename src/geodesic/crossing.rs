@@ -18,8 +18,9 @@
 //! Lorentz factor relative to the normal observer is -u.n = sqrt(1 + E^2/|A|).
 
 use super::radial::Particle;
-use crate::error::{Error, Result};
+use crate::error::{Error, ErrorKind, RequestField, Result};
 use crate::metric::SideFns;
+use crate::phrase;
 use crate::scenario::{Scenario, ShellKind, Side};
 use serde::Serialize;
 
@@ -119,7 +120,8 @@ fn side_values(side: &Side, params: &[f64], r: f64) -> Result<(f64, f64)> {
 pub fn cross(scenario: &Scenario, params: &[f64], req: &CrossingRequest) -> Result<Crossing> {
     let r = req.radius;
     if !(r.is_finite() && r > 0.0) {
-        return Err(Error::input(format!("--radius {r}: the shell radius must be positive")));
+        let message = phrase![RequestField::Radius, format!(" {r}: the shell radius must be positive")];
+        return Err(Error::request(ErrorKind::Input, RequestField::Radius, r, message));
     }
     if !req.energy_minus.is_finite() || !req.shell_velocity.is_finite() {
         return Err(Error::input("the energy and the shell velocity must be finite numbers"));
@@ -141,11 +143,13 @@ pub fn cross(scenario: &Scenario, params: &[f64], req: &CrossingRequest) -> Resu
         }
         ShellKind::Spacelike => {
             if req.shell_velocity != 0.0 {
-                return Err(Error::input(format!(
-                    "--shell-velocity {}: a spacelike shell r = R has no radial velocity",
-                    req.shell_velocity
-                ))
-                .with_hint("drop --shell-velocity for a spacelike shell"));
+                let (field, v) = (RequestField::ShellVelocity, req.shell_velocity);
+                let message = phrase![field, format!(" {v}: a spacelike shell r = R has no radial velocity")];
+                return Err(Error::request(ErrorKind::Input, field, v, message).with_hint_phrase(phrase![
+                    "drop ",
+                    field,
+                    " for a spacelike shell"
+                ]));
             }
             for (w, a, b) in [("minus", am, bm), ("plus", ap, bp)] {
                 if a > 0.0 || b > 0.0 {
@@ -156,12 +160,14 @@ pub fn cross(scenario: &Scenario, params: &[f64], req: &CrossingRequest) -> Resu
                 }
             }
             if req.direction.is_some() {
-                return Err(Error::input("a direction was given for a spacelike shell")
-                    .with_hint("inside a horizon the direction of r is fixed by the future (keep = black-hole/white-hole); drop --direction"));
+                return Err(Error::input("a direction was given for a spacelike shell").with_hint_phrase(phrase![
+                    "inside a horizon the direction of r is fixed by the future (keep = black-hole/white-hole); drop ",
+                    RequestField::Direction
+                ]));
             }
             if req.particle == Particle::Null && req.energy_minus == 0.0 {
                 return Err(Error::input("a radial light ray inside a horizon needs E != 0 (E = 0 gives k = 0)")
-                    .with_hint("give a nonzero --energy"));
+                    .with_hint_phrase(phrase!["give a nonzero ", RequestField::Energy]));
             }
             Ok(cross_spacelike(req, (am, bm, num), (ap, bp, nup)))
         }

@@ -67,7 +67,11 @@ pub fn run_chain(chain: &Chain, crossings: usize, threshold: Option<f64>) -> Res
         return Err(crate::Error::input(format!(
             "{crossings} crossings: more than the {MAX_CROSSINGS} one run can keep"
         ))
-        .with_hint("ask for fewer crossings (--crossings N or crossings = N in the chain file)"));
+        .with_hint_phrase(crate::phrase![
+            "ask for fewer crossings (",
+            crate::RequestField::Crossings,
+            " N or crossings = N in the chain file)"
+        ]));
     }
     let roots = RootOptions { samples: 600, ..Default::default() };
     let quad = QuadOptions::default();

@@ -6,7 +6,9 @@
 //!   to full relative precision right next to the horizon.
 //! - [`crossing`]: the crossing map minus -> plus for static, moving (timelike) and spacelike shells.
 //! - [`chain`] / [`iterate`]: chain files and the iterated crossing map; [`series`]: data for a figure.
-//! - [`report`]: the result structs of a crossing (with the orbit on each side) and of a chain.
+//! - [`report()`] and [`chain()`]: a crossing with the orbit on each side, and a chain of crossings, from plain
+//!   requests ([`CrossingRequest`], [`ChainRequest`]) as the command line and the bindings fill them; their
+//!   result structs live in [`report`](mod@report).
 //!
 //! Precision method: plain f64 with the small quantities (E^2, r_max - r_h) carried directly and near-horizon
 //! Taylor series from dual numbers; no arbitrary-precision arithmetic. Tests compare with an exact big-rational
@@ -48,5 +50,5 @@ pub use crossing::{cross, Crossing, CrossingRequest, Direction, SideState};
 pub use iterate::{run_chain, ChainRow, ChainRun};
 pub use quad::{Quad, QuadOptions};
 pub use radial::{Particle, Radial};
-pub use report::{chain_report, crossing_report, ChainReport, ChainRowReport, CrossingReport, OrbitReport};
+pub use report::{chain, report, ChainReport, ChainRequest, ChainRowReport, CrossingReport, OrbitReport};
 pub use series::{chain_series, Series};

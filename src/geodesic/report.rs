@@ -1,5 +1,6 @@
-//! Result structs of a crossing with the orbit on each side ([`crossing_report`]) and of a chain of crossings
-//! with optional SI lengths ([`chain_report`]), as the command-line program and the bindings print or return them.
+//! Result structs of a crossing with the orbit on each side ([`report`]) and of a chain of crossings with
+//! optional SI lengths ([`chain`]), as the command-line program and the bindings print or return them. Both
+//! take a plain request ([`CrossingRequest`], [`ChainRequest`]) that the front ends fill, and check it here.
 
 use super::apex::{max_radius, Apex};
 use super::chain::Chain;
@@ -8,8 +9,9 @@ use super::iterate::{run_chain, ChainRow, ChainRun};
 use super::quad::QuadOptions;
 use super::radial::{Particle, Radial};
 use super::series::{chain_series, Series};
-use crate::error::{Error, Result};
+use crate::error::{Error, ErrorKind, RequestField, Result};
 use crate::metric::{default_range, SideFns};
+use crate::phrase;
 use crate::roots::RootOptions;
 use crate::scenario::{Keep, Scenario, Which};
 use crate::units::{parse_length, parse_mass, Length, MassUnit, PLANCK_LENGTH_M};
@@ -70,8 +72,15 @@ pub struct CrossingReport {
 
 /// Cross the shell with `req` (see [`cross`] for the crossing map and its conventions) and follow the orbit on
 /// each side: turning points, the maximal radius above R ([`max_radius`]) and the proper and coordinate times
-/// to reach it ([`Radial`]).
-pub fn crossing_report(s: &Scenario, req: &CrossingRequest) -> Result<CrossingReport> {
+/// to reach it ([`Radial`]). Radius, energy and shell velocity are checked first ([`crate::request::value`]).
+pub fn report(s: &Scenario, req: &CrossingRequest) -> Result<CrossingReport> {
+    for (field, v) in [
+        (RequestField::Radius, req.radius),
+        (RequestField::Energy, req.energy_minus),
+        (RequestField::ShellVelocity, req.shell_velocity),
+    ] {
+        crate::request::value(field, v)?;
+    }
     let c = cross(s, s.params.values(), req)?;
     let minus = orbit_report(s, Which::Minus, c.minus, req);
     let plus = c.plus.map(|p| orbit_report(s, Which::Plus, p, req));
@@ -193,12 +202,30 @@ pub struct ChainReport {
     pub unit: Option<MassUnit>,
 }
 
-/// Iterate `crossings` crossings of `chain` ([`run_chain`]). `mass` is a mass unit such as `1Msun` or `2e30kg`
-/// ([`parse_mass`]); `within` a distance to the horizon such as `1lP`, `1e-30m`, `1e-3M` ([`parse_length`],
-/// default with a mass: one Planck length). Errors name the option (`--crossings`, `--within`).
-pub fn chain_report(chain: &Chain, crossings: usize, mass: Option<&str>, within: Option<&str>) -> Result<ChainReport> {
+/// What to iterate over a chain: as the front ends fill it.
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct ChainRequest {
+    /// Number of crossings (default: the chain file's `crossings`).
+    pub crossings: Option<usize>,
+    /// A mass unit such as `1Msun` or `2e30kg` ([`parse_mass`]); adds lengths in metres.
+    pub mass: Option<String>,
+    /// A distance to the horizon such as `1lP`, `1e-30m`, `1e-3M` ([`parse_length`]; default with a mass: one
+    /// Planck length): the report names the first crossing whose orbit comes that close.
+    pub within: Option<String>,
+}
+
+/// Iterate the crossings of `chain` that `req` asks for ([`run_chain`]), with the threshold and lengths in
+/// metres when a mass unit is given. Errors name the request fields (`crossings`, `mass`, `within`).
+pub fn chain(chain: &Chain, req: &ChainRequest) -> Result<ChainReport> {
+    let crossings = req.crossings.unwrap_or(chain.crossings);
+    let (mass, within) = (req.mass.as_deref(), req.within.as_deref());
     if crossings == 0 {
-        return Err(Error::input("--crossings 0: nothing to do").with_hint("give --crossings N with N >= 1"));
+        let message = phrase![RequestField::Crossings, " 0: nothing to do"];
+        return Err(Error::request(ErrorKind::Input, RequestField::Crossings, 0, message).with_hint_phrase(phrase![
+            "give ",
+            RequestField::Crossings,
+            " N with N >= 1"
+        ]));
     }
     let unit = match mass {
         Some(m) => Some(MassUnit::new(parse_mass(m)?)?),
@@ -209,7 +236,10 @@ pub fn chain_report(chain: &Chain, crossings: usize, mass: Option<&str>, within:
         (None, Some(_)) => Some(Length::Metres(PLANCK_LENGTH_M)),
         (None, None) => None,
     };
-    let threshold = within.map(|w| w.geometric(unit.as_ref())).transpose().map_err(|e| e.context("--within"))?;
+    let threshold = within
+        .map(|w| w.geometric(unit.as_ref()))
+        .transpose()
+        .map_err(|e| e.context_phrase(phrase![RequestField::Within]))?;
     let run = run_chain(chain, crossings, threshold)?;
     let mut provenance = format!("{} | crossings {crossings}", chain.provenance());
     if let (Some(m), Some(u)) = (mass, &unit) {
@@ -242,4 +272,19 @@ pub fn chain_report(chain: &Chain, crossings: usize, mass: Option<&str>, within:
         run,
         unit,
     })
+}
+
+impl ChainReport {
+    /// The figures of the run that have data ([`crate::report::figures::chain_figures`]; the threshold in
+    /// metres when a mass unit is given, like the distances).
+    pub fn figures(&self) -> Vec<(String, crate::plot::Figure)> {
+        let threshold = match (self.run.threshold, self.unit.as_ref()) {
+            (Some(t), Some(u)) => Some(u.to_m(t)),
+            (t, _) => t,
+        };
+        crate::report::figures::chain_figures(&self.series, threshold, &self.provenance)
+            .into_iter()
+            .filter(|(_, fig)| fig.series.iter().any(|s| s.points.iter().any(|p| p.1.is_finite())))
+            .collect()
+    }
 }

@@ -132,7 +132,11 @@ pub fn closed_forms(s: &Scenario, state: ClosedState) -> Result<ClosedForms> {
                 side.keep.name(),
                 s.shell.kind.name()
             ))
-            .with_hint("use --state moving for the general shell state"));
+            .with_hint_phrase(crate::phrase![
+                "use ",
+                crate::RequestField::State,
+                " moving for the general shell state"
+            ]));
         }
         sides.push(SideForms { nu: side.normal_sign(), a, b, db, phi });
     }

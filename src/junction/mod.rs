@@ -188,7 +188,7 @@ pub fn admissible_error(a: f64, why: admissible::Inadmissible) -> Error {
         admissible::Inadmissible::KeepContradicts { .. } => Error::input(msg),
         _ => Error::numerical(msg),
     };
-    e.with_hint(why.hint())
+    e.with_hint(why.hint()).with_problem(crate::Problem::Inadmissible { radius: a, reason: why })
 }
 
 /// Area of the unit n-sphere, Omega_n = 2 pi^((n+1)/2) / Gamma((n+1)/2) (common practice), by the recursion

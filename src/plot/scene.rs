@@ -208,7 +208,14 @@ fn transformed(fig: &Figure, look: &Look) -> Result<Figure> {
         return Ok(fig.clone());
     }
     if fig.categories.is_some() {
-        return Err(Error::input("log axes are not available for maps").with_hint("drop --log-x / --log-y for maps"));
+        use crate::RequestField::{LogX, LogY};
+        return Err(Error::input("log axes are not available for maps").with_hint_phrase(crate::phrase![
+            "drop ",
+            LogX,
+            " / ",
+            LogY,
+            " for maps"
+        ]));
     }
     let lx = |x: f64| {
         if look.log_x {

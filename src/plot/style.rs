@@ -1,7 +1,7 @@
 //! Look of the figures: the two styles (journal: serif STIX text, ticks inside on all four sides; classic:
 //! DejaVu Sans, ticks outside), the colour palette, the embedded fonts and the tick-label formatter.
 
-use crate::error::{Error, ErrorKind};
+use crate::error::Error;
 
 /// Family name of the embedded STIX General (serif, Times-like text that matches LaTeX documents set in
 /// Times/STIX, SIL Open Font License 1.1, `assets/fonts/`), as registered in the font database.
@@ -114,11 +114,8 @@ pub(crate) fn category_fill(i: usize) -> (u8, u8, u8) {
 /// An error for a figure that could not be drawn or encoded (treated as an I/O-class failure: no output is
 /// written).
 pub(crate) fn render_error(msg: impl Into<String>) -> Error {
-    Error {
-        kind: ErrorKind::Io,
-        message: format!("drawing the figure failed: {}", msg.into()),
-        hint: Some("this is a problem with the figure renderer, not with your scenario; please report it".into()),
-    }
+    Error::io_msg(format!("drawing the figure failed: {}", msg.into()))
+        .with_hint("this is a problem with the figure renderer, not with your scenario; please report it")
 }
 
 /// Compact tick label: `decimals` places, trailing zeros removed, never `-0`; very large or small

@@ -616,7 +616,9 @@ pub fn family_figures(
     let mut pre = Vec::new();
     for (i, &v) in values.iter().enumerate() {
         let mut sc = s.clone();
-        sc.params.set(param, v).map_err(|e| e.context(format!("--family {param}")))?;
+        sc.params
+            .set(param, v)
+            .map_err(|e| e.context_phrase(crate::phrase![crate::RequestField::Family, format!(" {param}")]))?;
         let j = Junction::new(&sc);
         let mut c = Vec::with_capacity(n);
         let mut side = Vec::with_capacity(n);

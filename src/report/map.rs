@@ -27,14 +27,15 @@ pub fn map_spec(
     from: Option<f64>,
     to: Option<f64>,
 ) -> Result<MapSpec> {
-    let xs = parse_axis("--x", x)?;
-    let ys = parse_axis("--y", y)?;
+    let xs = parse_axis(crate::RequestField::X, x)?;
+    let ys = parse_axis(crate::RequestField::Y, y)?;
     let x = Axis::new(s, &xs.name, xs.lo, xs.hi, xs.n)?;
     let y = Axis::new(s, &ys.name, ys.lo, ys.hi, ys.n)?;
     let rr = range(from, to, default_range(s))?;
     if let Some(b) = beta2 {
         if !b.is_finite() {
-            return Err(Error::input(format!("--beta2 {b} is not a finite number")));
+            let message = crate::phrase![crate::RequestField::Beta2, format!(" {b} is not a finite number")];
+            return Err(Error::request(crate::ErrorKind::Input, crate::RequestField::Beta2, b, message));
         }
     }
     MapSpec::new(s, x, y, beta2, rr)
@@ -43,18 +44,21 @@ pub fn map_spec(
 /// Refuse maps too large to write (`to_files`) or, for counts only, to finish, before any work starts.
 pub fn check_size(spec: &MapSpec, to_files: bool) -> Result<()> {
     let cells = spec.x.n as u128 * spec.y.n as u128;
-    let what = format!("--x {} points x --y {} points = {cells} cells", spec.x.n, spec.y.n);
+    use crate::{phrase, ErrorKind::Input, RequestField as F};
+    let what = phrase![F::X, format!(" {} points x ", spec.x.n), F::Y, format!(" {} points = {cells} cells", spec.y.n)];
     if to_files && (cells > MAX_FILE_CELLS || spec.x.n.max(spec.y.n) > MAX_LINE_CELLS) {
-        return Err(Error::input(format!(
-            "{what}: too many to write to files (at most {MAX_FILE_CELLS} cells, {MAX_LINE_CELLS} on one axis)"
-        ))
-        .with_hint("use fewer points, or --summary for counts only (it streams and stores no cells)"));
+        let why =
+            format!(": too many to write to files (at most {MAX_FILE_CELLS} cells, {MAX_LINE_CELLS} on one axis)");
+        return Err(Error::phrased(Input, what.then(phrase![why])).with_hint_phrase(phrase![
+            "use fewer points, or ",
+            F::Summary,
+            " for counts only (it streams and stores no cells)"
+        ]));
     }
     if !to_files && cells > MAX_SUMMARY_CELLS {
-        return Err(Error::input(format!(
-            "{what}: too many to count in reasonable time (at most {MAX_SUMMARY_CELLS})"
-        ))
-        .with_hint("use fewer points; the counts converge long before this resolution"));
+        let why = format!(": too many to count in reasonable time (at most {MAX_SUMMARY_CELLS})");
+        return Err(Error::phrased(Input, what.then(phrase![why]))
+            .with_hint("use fewer points; the counts converge long before this resolution"));
     }
     Ok(())
 }

@@ -190,12 +190,13 @@ impl Params {
     /// Index of parameter `name`, or an error listing the known names with a suggestion.
     pub fn index(&self, name: &str) -> Result<usize> {
         self.names.iter().position(|n| n == name).ok_or_else(|| {
-            let hint = match crate::expr::parse::closest(name, self.names.iter().map(|s| s.as_str())) {
+            let suggestion = crate::expr::parse::closest(name, self.names.iter().map(|s| s.as_str()));
+            let hint = match suggestion {
                 Some(s) => format!("did you mean '{s}'? known parameters: {}", self.names.join(", ")),
                 None if self.names.is_empty() => "the scenario defines no parameters".to_string(),
                 None => format!("known parameters: {}", self.names.join(", ")),
             };
-            Error::input(format!("unknown parameter '{name}'")).with_hint(hint)
+            Error::unknown_parameter(name, suggestion).with_hint(hint)
         })
     }
 
@@ -319,12 +320,14 @@ impl Scenario {
         let file = origin.label();
         let raw: raw::RawScenario = toml::from_str(text).map_err(|e| {
             let mut msg = file.clone();
+            let mut problem = crate::Problem::Other;
             if let Some(span) = e.span() {
                 let (l, c) = line_col(text, span.start);
                 msg.push_str(&format!(":{l}:{c}"));
+                problem = crate::Problem::Parse { file: file.clone(), line: l, column: c };
             }
             msg.push_str(&format!(": {}", e.message()));
-            Error::input(msg).with_hint(
+            Error::input(msg).with_problem(problem).with_hint(
                 "see the scenario format in the README (keys: name, dimension, [parameters], [minus], [plus], [shell], [symbols])",
             )
         })?;
@@ -557,13 +560,16 @@ impl Scenario {
     /// Apply `NAME=VALUE` overrides from the command line.
     pub fn apply_overrides(&mut self, sets: &[String]) -> Result<()> {
         for s in sets {
-            let (k, v) = s
-                .split_once('=')
-                .ok_or_else(|| Error::input(format!("--set {s}: expected NAME=VALUE")).with_hint("e.g. --set m=2"))?;
-            let v: f64 = v.trim().parse().map_err(|_| {
-                Error::input(format!("--set {s}: '{}' is not a number", v.trim())).with_hint("e.g. --set q=0.5")
+            use crate::{error::ErrorKind::Input, phrase, RequestField::Set};
+            let (k, v) = s.split_once('=').ok_or_else(|| {
+                Error::request(Input, Set, s, phrase![Set, format!(" {s}: expected NAME=VALUE")])
+                    .with_hint_phrase(phrase!["e.g. ", Set, " m=2"])
             })?;
-            self.params.set(k.trim(), v).map_err(|e| e.context(format!("--set {s}")))?;
+            let v: f64 = v.trim().parse().map_err(|_| {
+                Error::request(Input, Set, s, phrase![Set, format!(" {s}: '{}' is not a number", v.trim())])
+                    .with_hint_phrase(phrase!["e.g. ", Set, " q=0.5"])
+            })?;
+            self.params.set(k.trim(), v).map_err(|e| e.context_phrase(phrase![Set, format!(" {s}")]))?;
         }
         Ok(())
     }
@@ -626,7 +632,7 @@ fn expr_error(text: &str, file: &str, value_start: usize, what: &str, e: ParseEr
         e.source,
         " ".repeat(e.column.saturating_sub(1))
     );
-    let mut err = Error::input(msg);
+    let mut err = Error::input(msg).with_problem(crate::Problem::Parse { file: file.to_string(), line, column: col });
     if let Some(h) = e.hint {
         err = err.with_hint(h);
     }

@@ -251,9 +251,10 @@ pub fn sweep_with_progress(
     opts: &StaticsOptions,
     progress: &dyn Fn(usize, usize),
 ) -> Result<SweepReport> {
-    let k = s.params.index(name).map_err(|e| e.context("--vary"))?;
+    let k = s.params.index(name).map_err(|e| e.context_phrase(crate::phrase![crate::RequestField::Vary]))?;
     if values.len() < 2 {
-        return Err(Error::input("--vary needs at least 2 values (N >= 2)"));
+        let message = crate::phrase![crate::RequestField::Vary, " needs at least 2 values (N >= 2)"];
+        return Err(Error::request(crate::ErrorKind::Input, crate::RequestField::Vary, values.len(), message));
     }
     let (l_lo, l_hi) = (values[0], values[values.len() - 1]);
     let c = Ctx { s, k, a_lo, a_hi, l_lo, l_hi };

@@ -122,7 +122,7 @@ pub fn tune_at_radius(
     opts: &StaticsOptions,
 ) -> Result<TuneReport> {
     check_eos(s)?;
-    let k = s.params.index(name).map_err(|e| e.context("--solve"))?;
+    let k = s.params.index(name).map_err(|e| e.context_phrase(crate::phrase![crate::RequestField::Solve]))?;
     let (lo, hi) = range.unwrap_or_else(|| default_param_range(s.params.values()[k]));
     // Validate the radius once with the current parameters (horizon, region) for a clear message.
     Junction::new(s).static_values(a)?;
@@ -192,7 +192,7 @@ pub fn tune_marginal(
     opts: &StaticsOptions,
 ) -> Result<TuneReport> {
     check_eos(s)?;
-    let k = s.params.index(name).map_err(|e| e.context("--solve"))?;
+    let k = s.params.index(name).map_err(|e| e.context_phrase(crate::phrase![crate::RequestField::Solve]))?;
     let (plo, phi) = range.unwrap_or_else(|| default_param_range(s.params.values()[k]));
     let ropts = RootOptions { samples: 300, ..opts.roots };
     let radii = crate::roots::sample_points(lo, hi, 150);

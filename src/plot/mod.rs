@@ -37,6 +37,7 @@
 mod encode;
 mod geom;
 mod pdf_canon;
+mod raster;
 mod scene;
 mod style;
 mod text;

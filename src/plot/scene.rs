@@ -747,7 +747,7 @@ fn panel_data(cx: &mut Ctx, fig: &Figure, m: &Mapper, opacity: f64) -> Result<()
     if let Some(cm) = &fig.categories {
         let (l, t) = m.px((cm.x.0, cm.y.1));
         let (r, btm) = m.px((cm.x.1, cm.y.0));
-        cx.items.push(Item::Image { b: BBox::new(l, t, r, btm), clip: b, png: super::encode::category_png(cm)? });
+        cx.items.push(Item::Image { b: BBox::new(l, t, r, btm), clip: b, png: super::raster::category_png(cm)? });
     }
     for band in &fig.bands {
         let (pieces, colour) = band_polygons(band, &w);

@@ -3,8 +3,9 @@
 //! Point k of n (k = 0 .. n-1) is `lo + (hi - lo) k / (n - 1)` on the linear scale and
 //! `exp(ln lo + (ln hi - ln lo) k / (n - 1))` on the logarithmic one; the first point is `lo` and the last `hi`,
 //! exactly, whatever the rounding of the formula. [`linear_by_step`] is the linear scale written as `lo + k h` with
-//! `h = (hi - lo) / (n - 1)`: the same points up to the last bit, kept where a figure's output depends on that bit. The maps' axes (`scan::grid`) evaluate the same linear formula in
-//! double-double arithmetic instead, so that printed grid values are the decimals of the exact grid.
+//! `h = (hi - lo) / (n - 1)`: the same points up to the last bit, kept where a figure's output depends on that bit.
+//! The maps' axes (`scan::grid`) evaluate the linear formula in double-double arithmetic instead, so that printed
+//! grid values are the decimals of the exact grid.
 
 /// n points from `lo` to `hi` on a linear scale: `lo + (hi - lo) k / (n - 1)`, the last point exactly `hi`.
 /// One point is `[lo]`, none is empty.

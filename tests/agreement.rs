@@ -125,7 +125,7 @@ fn derive_and_map_agree_at_random_radii() {
 }
 
 #[test]
-#[ignore = "the map's marginal band omits the 1/a0^2 term of junction::stability::marginal_scale (scan::cell::classify_v2)"]
+#[ignore = "the map's marginal band (scan::cell::classify_v2) omits the 1/a0^2 term of marginal_scale"]
 fn map_uses_the_statics_marginal_rule() {
     let (_, band) = random_radii(true);
     assert_eq!(band, 0);

@@ -4,9 +4,9 @@
 //! Method. At a fixed radius, f(a; lambda) = p0 - P(sigma0) is scanned over a range of lambda and every sign change
 //! refined (see `roots`). For marginal configurations the two equations f = 0 and V''(a0) = 0 in the unknowns
 //! (a0, lambda) are solved by Newton's method on the 2x2 system with an exact Jacobian from dual numbers
-//! (`newton::solve`, nalgebra's LU for the step), started from sign changes of V'' along the curve of static solutions. A direct
-//! Newton step was chosen over a least-squares minimiser because the system is square and its Jacobian exact;
-//! Gauss-Newton on J^T J squares the condition number and stalls where J^T J is singular.
+//! (`newton::solve`, nalgebra's LU for the step), started from sign changes of V'' along the curve of static
+//! solutions. A direct Newton step was chosen over a least-squares minimiser because the system is square and its
+//! Jacobian exact; Gauss-Newton on J^T J squares the condition number and stalls where J^T J is singular.
 //! Sensitivity: da0/dlambda = -f_lambda / f_a (implicit-function theorem), with both partials from dual numbers.
 
 use super::{residual, Stability, StaticsOptions};

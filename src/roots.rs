@@ -72,10 +72,9 @@ pub struct RootScan {
 pub fn sample_points(lo: f64, hi: f64, n: usize) -> Vec<f64> {
     let n = n.max(2);
     if lo > 0.0 && hi / lo > 100.0 {
-        let (a, b) = (lo.ln(), hi.ln());
-        (0..n).map(|i| if i == n - 1 { hi } else { (a + (b - a) * i as f64 / (n - 1) as f64).exp() }).collect()
+        crate::spacing::log(lo, hi, n)
     } else {
-        (0..n).map(|i| if i == n - 1 { hi } else { lo + (hi - lo) * i as f64 / (n - 1) as f64 }).collect()
+        crate::spacing::linear(lo, hi, n)
     }
 }
 

@@ -12,20 +12,11 @@ use junctura::scenario::{Scenario, ShellKind, Which};
 use junctura::statics::{admissible_at, residual};
 use std::process::Command;
 
+mod common;
+use common::{length_scale, shipped_scenarios, Rng};
+
 fn bin() -> Command {
     Command::new(env!("CARGO_BIN_EXE_junctura"))
-}
-
-/// A small deterministic generator (xorshift64*), so failures reproduce.
-struct Rng(u64);
-impl Rng {
-    fn uniform(&mut self, lo: f64, hi: f64) -> f64 {
-        self.0 ^= self.0 >> 12;
-        self.0 ^= self.0 << 25;
-        self.0 ^= self.0 >> 27;
-        let u = (self.0.wrapping_mul(0x2545_f491_4f6c_dd1d) >> 11) as f64 / (1u64 << 53) as f64;
-        lo + (hi - lo) * u
-    }
 }
 
 /// A side whose A changes sign where B does not (A < 0 < B outside r = 2m): signature (-,-,+,+) there.
@@ -61,14 +52,7 @@ pressure = "w*sigma"
 "#;
 
 fn scenarios() -> Vec<(String, Scenario)> {
-    let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("scenarios");
-    let mut out: Vec<(String, Scenario)> = std::fs::read_dir(&dir)
-        .unwrap()
-        .map(|e| e.unwrap().path())
-        .filter(|p| p.extension().is_some_and(|x| x == "toml"))
-        .map(|p| (p.display().to_string(), Scenario::load(&p).unwrap()))
-        .collect();
-    assert!(out.len() >= 5, "the shipped scenarios were not found");
+    let mut out = shipped_scenarios();
     for (name, text) in [("signature flip", SIGNATURE_FLIP), ("keep T-region", KEEP_T_REGION)] {
         out.push((name.into(), Scenario::parse(text, None).unwrap()));
     }
@@ -85,7 +69,7 @@ fn derive_statics_and_maps_agree_on_every_point() {
             continue; // maps and statics are for timelike shells
         }
         let params = s.params.values();
-        let scale = params.iter().fold(1.0f64, |m, p| m.max(p.abs()));
+        let scale = length_scale(&s);
         let j = Junction::new(&s);
         let fj = FastJunction::new(&s);
         for _ in 0..300 {

@@ -125,5 +125,5 @@ pub struct Ensemble {
 
 /// The N kicks of an ensemble: N points spread evenly over [-S, S] with both ends included (N >= 2).
 pub fn ensemble_kicks(n: usize, spread: f64) -> Vec<f64> {
-    (0..n).map(|i| if i + 1 == n { spread } else { -spread + 2.0 * spread * i as f64 / (n - 1) as f64 }).collect()
+    crate::spacing::linear(-spread, spread, n)
 }

@@ -52,7 +52,7 @@ pub struct Aux {
 pub struct Normals {
     /// B_minus(R), B_plus(R).
     pub b: [f64; 2],
-    /// n^r on [minus, plus]: X_plus = (Y + [B]/Y)/2, X_minus = ([B]/Y - Y)/2 with Y = -kappa (module docs of
+    /// n^r on [minus, plus]: X_plus = (Y + \[B\]/Y)/2, X_minus = (\[B\]/Y - Y)/2 with Y = -kappa (module docs of
     /// `junction::potential`); on the constraint surface X_i^2 = Rdot^2 + B_i.
     pub n_r: [f64; 2],
 }

@@ -28,7 +28,7 @@ pub enum Start {
     /// At a0 with dR/dtau = V0, sigma from the angular junction condition with that velocity.
     Velocity(f64),
     /// At R with dR/dtau = V (the sign is the direction), sigma from the angular junction condition
-    /// sigma = -(D-2)[X]/(8 pi R), X_i = nu_i sqrt(V^2 + B_i).
+    /// sigma = -(D-2)\[X\]/(8 pi R), X_i = nu_i sqrt(V^2 + B_i).
     Moving(f64),
     /// At R with surface energy density sigma; |dR/dtau| = sqrt(-V(R, sigma)) from the energy constraint, moving
     /// outward or inward (`None` only at a turning point, V(R, sigma) = 0).
@@ -104,7 +104,7 @@ pub struct Initial {
     pub radius: f64,
     /// dR/dtau.
     pub rdot: f64,
-    /// sigma from the angular junction condition sigma = -(D-2)[X]/(8 pi R), X_i = nu_i sqrt(Rdot^2 + B_i).
+    /// sigma from the angular junction condition sigma = -(D-2)\[X\]/(8 pi R), X_i = nu_i sqrt(Rdot^2 + B_i).
     pub sigma: f64,
 }
 
@@ -310,10 +310,10 @@ fn check_evolvable(s: &Scenario) -> Result<()> {
 
 /// The starting state from arbitrary initial data at radius `r` (`Start::Moving` or `Start::Sigma`), completed
 /// by the energy constraint Rdot^2 + V(R, sigma) = 0 (V from `potential_from_y`, Poisson 2004 ch. 3):
-/// - `Moving(V)`: sigma = -(D-2)[X]/(8 pi R) with X_i = nu_i sqrt(V^2 + B_i); needs V^2 + B_i > 0 on both sides,
+/// - `Moving(V)`: sigma = -(D-2)\[X\]/(8 pi R) with X_i = nu_i sqrt(V^2 + B_i); needs V^2 + B_i > 0 on both sides,
 ///   and on a side in a T-region an explicit `normal_sign` (there `keep` does not fix the sign of n^r);
 /// - `Sigma { sigma, outward }`: Rdot^2 = -V(R, sigma), which must be >= 0; the normals X_i then follow from the
-///   junction condition (X_plus = (Y + [B]/Y)/2, X_minus = ([B]/Y - Y)/2, Y = -8 pi R sigma/(D-2)) and must agree
+///   junction condition (X_plus = (Y + \[B\]/Y)/2, X_minus = (\[B\]/Y - Y)/2, Y = -8 pi R sigma/(D-2)) and must agree
 ///   with the sign that `keep` (or `normal_sign`) gives on each side in an R-region.
 ///
 /// Errors (input, exit 2) name the option and value and say why no shell state exists there.

@@ -7,7 +7,7 @@
 //! argument: `(g∘u)' = g' u'`, `(g∘u)'' = g'' u'^2 + g' u''`, `(g∘u)''' = g''' u'^3 + 3 g'' u' u'' + g' u'''`.
 
 use super::ast::Func;
-use super::tape::{Inst, BLOCK};
+use super::inst::{Inst, BLOCK};
 
 type Jet = [f64; 4];
 

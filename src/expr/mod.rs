@@ -27,6 +27,7 @@
 
 pub mod ast;
 pub mod eval;
+mod inst;
 mod jets;
 pub mod parse;
 pub mod print;

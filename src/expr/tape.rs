@@ -23,24 +23,8 @@
 
 use super::ast::{BinOp, Func, Node};
 use super::eval::{apply, eval_node, Scalar};
+use super::inst::{Inst, BLOCK};
 use std::collections::HashMap;
-
-/// One tape instruction; operands are slot indices of earlier instructions.
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub(super) enum Inst {
-    Const(f64),
-    Var,
-    Param(usize),
-    Neg(u32),
-    Add(u32, u32),
-    Sub(u32, u32),
-    Mul(u32, u32),
-    Div(u32, u32),
-    Square(u32),
-    Powi(u32, i32),
-    Powf(u32, f64),
-    Call(Func, u32),
-}
 
 /// Hashable identity of an instruction, for sharing repeated subtrees.
 fn key(inst: &Inst) -> (u8, u64, u64) {
@@ -179,9 +163,6 @@ fn step<T: Scalar>(inst: Inst, s: &[T], x: T, param: &impl Fn(usize) -> T) -> T 
 const STACK_SLOTS: usize = 48;
 /// A smaller stack buffer for short tapes (less to initialise per point).
 const SMALL_SLOTS: usize = 16;
-
-/// Points per block in the batch evaluators (structure of arrays: one lane per point).
-pub(crate) const BLOCK: usize = 64;
 
 impl Tape {
     /// Compile a tree.

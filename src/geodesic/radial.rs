@@ -139,7 +139,8 @@ impl<'a> Radial<'a> {
 
     /// Proper time (timelike) or affine parameter (null, normalised by u_t = -E) between r1 and r2:
     /// int dr / |dr/dtau| with the module's formula for (dr/dtau)^2, by adaptive Gauss-Kronrod quadrature; the
-    /// 1/sqrt singularity at a turning point end is removed by a substitution ([`integrate_sqrt_ends`]).
+    /// 1/sqrt singularity at a turning point end is removed by a substitution
+    /// ([`integrate_sqrt_ends`](super::quad::integrate_sqrt_ends)).
     pub fn proper_time(&self, r1: f64, r2: f64, roots: &RootOptions, quad: &QuadOptions) -> Result<Quad> {
         self.check_interval(r1, r2, roots)?;
         let (lo, hi) = if r1 < r2 { (r1, r2) } else { (r2, r1) };

@@ -2,9 +2,10 @@
 //! category bitmap), as a 300 dpi PNG rendered from that SVG (with text chunks), and as a PDF converted from
 //! the same SVG with the embedded fonts.
 
+use super::raster::encode_png;
 use super::scene::{self, Anchor, Item, Scene};
 use super::style::{self, render_error};
-use super::{CategoryMap, Figure, Look};
+use super::{Figure, Look};
 use crate::error::Result;
 use std::fmt::Write;
 
@@ -209,20 +210,6 @@ pub(crate) fn svg(sc: &Scene, provenance: &str, title: Option<&str>) -> Result<S
     Ok(s)
 }
 
-/// One pixel per cell of a category map (top row first), as PNG bytes.
-pub(crate) fn category_png(m: &CategoryMap) -> Result<Vec<u8>> {
-    let (nx, ny) = (m.x.2, m.y.2);
-    let mut rgb = Vec::with_capacity(nx * ny * 3);
-    for row in (0..ny).rev() {
-        for col in 0..nx {
-            let cat = m.cells[row * nx + col] as usize;
-            let (cr, cg, cb) = style::category_fill(m.categories[cat].1);
-            rgb.extend_from_slice(&[cr, cg, cb]);
-        }
-    }
-    encode_png(&rgb, (nx as u32, ny as u32), &[], None)
-}
-
 /// Options for reading our SVG: both embedded fonts in the font database (checked to be non-empty, since
 /// an empty one silently drops all text).
 fn svg_options() -> Result<usvg::Options<'static>> {
@@ -265,34 +252,6 @@ pub(crate) fn png(svg: &str, sc: &Scene, provenance: &str, title: Option<&str>) 
         text.push(("Title", t.to_string()));
     }
     encode_png(&rgb, (w, h), &text, Some(style::PNG_DPI))
-}
-
-/// Encode 8-bit RGB pixels as PNG with text chunks (`tEXt` for Latin-1 text, `iTXt` otherwise) and an
-/// optional resolution in dots per inch.
-fn encode_png(rgb: &[u8], (w, h): (u32, u32), text: &[(&str, String)], dpi: Option<f64>) -> Result<Vec<u8>> {
-    let mut out = Vec::new();
-    let fail = |e: png::EncodingError| render_error(format!("PNG encoding: {e}"));
-    {
-        let mut enc = png::Encoder::new(&mut out, w, h);
-        enc.set_color(png::ColorType::Rgb);
-        enc.set_depth(png::BitDepth::Eight);
-        enc.set_compression(png::Compression::Best);
-        if let Some(dpi) = dpi {
-            let ppm = (dpi / 0.0254).round() as u32;
-            enc.set_pixel_dims(Some(png::PixelDimensions { xppu: ppm, yppu: ppm, unit: png::Unit::Meter }));
-        }
-        for (key, value) in text {
-            if value.chars().all(|c| (c as u32) < 256) {
-                enc.add_text_chunk(key.to_string(), value.clone()).map_err(fail)?;
-            } else {
-                enc.add_itxt_chunk(key.to_string(), value.clone()).map_err(fail)?;
-            }
-        }
-        let mut writer = enc.write_header().map_err(fail)?;
-        writer.write_image_data(rgb).map_err(fail)?;
-        writer.finish().map_err(fail)?;
-    }
-    Ok(out)
 }
 
 /// Convert our SVG to PDF: the embedded fonts are loaded into the converter's font database, the page is the SVG's physical size, and the
@@ -363,6 +322,7 @@ fn base64(bytes: &[u8]) -> String {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::plot::CategoryMap;
     use crate::plot::{LineStyle, Series};
 
     fn small_figure() -> Figure {

@@ -3,10 +3,11 @@
 //! [`Layout`], so that placement can avoid collisions and tests can check them. Pure geometry: the encoders
 //! turn a [`Scene`] into SVG, PDF or PNG.
 
+use super::draw::plot_window;
 use super::geom::{self, Window};
 use super::style::{self, Style};
 use super::text;
-use super::{plot_window, Band, Figure, LegendPos, LineStyle, Look, Orientation};
+use super::{Band, Figure, LegendPos, LineStyle, Look, Orientation};
 use crate::error::{Error, Result};
 
 /// An axis-aligned box in points, y growing downwards (SVG convention): left, top, right, bottom.
@@ -754,7 +755,7 @@ fn panel_data(cx: &mut Ctx, fig: &Figure, m: &Mapper, opacity: f64) -> Result<()
     if let Some(cm) = &fig.categories {
         let (l, t) = m.px((cm.x.0, cm.y.1));
         let (r, btm) = m.px((cm.x.1, cm.y.0));
-        cx.items.push(Item::Image { b: BBox::new(l, t, r, btm), clip: b, png: super::encode::category_png(cm)? });
+        cx.items.push(Item::Image { b: BBox::new(l, t, r, btm), clip: b, png: super::raster::category_png(cm)? });
     }
     for band in &fig.bands {
         let (pieces, colour) = band_polygons(band, &w);

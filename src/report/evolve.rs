@@ -41,8 +41,7 @@ pub fn phase_figure(j: &Junction<f64>, r: &EvolveReport) -> Figure {
     // Below the orbit by at most a quarter of its smallest radius: the squared constraint also has the other sign
     // branch of the junction condition, allowed again at small R, which is not this motion.
     let x0 = (lo - pad).max(0.75 * lo);
-    let radii: Vec<f64> =
-        (0..n).map(|i| x0 + (hi + pad - x0) * i as f64 / (n - 1) as f64).filter(|x| *x > 0.0).collect();
+    let radii: Vec<f64> = crate::spacing::linear(x0, hi + pad, n).into_iter().filter(|x| *x > 0.0).collect();
     let v = orbit_potential(j, &r.initial, &radii).unwrap_or_else(|_| vec![f64::NAN; radii.len()]);
     let root = |sign: f64| -> Vec<(f64, f64)> {
         radii.iter().zip(&v).map(|(&x, &vv)| (x, if vv <= 0.0 { sign * (-vv).sqrt() } else { f64::NAN })).collect()

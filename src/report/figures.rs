@@ -71,9 +71,7 @@ pub fn overlays(s: &Scenario, lo: f64, hi: f64) -> Overlays {
     let mut ov = Overlays::default();
     let j = Junction::new(s);
     if s.shell.eos.is_some() {
-        let n = 600;
-        for k in 0..n {
-            let a = lo + (hi - lo) * k as f64 / (n - 1) as f64;
+        for a in crate::spacing::linear(lo, hi, 600) {
             let (b2, pl) = match j.static_values(a) {
                 Ok(sv) => {
                     let sg = sv.stress.sigma();
@@ -286,7 +284,7 @@ pub fn potential_figure(s: &Scenario, rep: &StaticsReport) -> Option<Figure> {
     let j = Junction::new(s);
     let lo = rep.static_radii.first()?.radius * 0.6;
     let hi = rep.static_radii.last()?.radius * 1.4;
-    let radii: Vec<f64> = (0..400).map(|i| lo + (hi - lo) * i as f64 / 399.0).collect();
+    let radii = crate::spacing::linear(lo, hi, 400);
     let mut series = Vec::new();
     let mut markers = Vec::new();
     for (i, sr) in rep.static_radii.iter().enumerate() {
@@ -368,8 +366,7 @@ pub fn sigma_pressure_figure_with(s: &Scenario, lo: f64, hi: f64, ov: Option<&Ov
     let mut wec = Vec::new();
     let mut dec = Vec::new();
     let step = (hi - lo) / (n - 1) as f64;
-    for i in 0..n {
-        let a = lo + step * i as f64;
+    for a in crate::spacing::linear_by_step(lo, hi, n) {
         match j.static_values(a) {
             Ok(sv) => {
                 let (sg, p) = (sv.stress.sigma(), sv.stress.pressure());
@@ -623,8 +620,7 @@ pub fn family_figures(
         let mut c = Vec::with_capacity(n);
         let mut side = Vec::with_capacity(n);
         let (mut sg, mut pr) = (Vec::with_capacity(n), Vec::with_capacity(n));
-        for k in 0..n {
-            let a = lo + (hi - lo) * k as f64 / (n - 1) as f64;
+        for a in crate::spacing::linear(lo, hi, n) {
             match crate::scan::cell::static_point(&j, a) {
                 Ok((sigma, p, c0, c1)) => {
                     let b = if c1 != 0.0 { -c0 / c1 } else { f64::NAN };

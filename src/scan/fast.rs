@@ -5,7 +5,7 @@
 //! The closed form is the generic computation of [`crate::junction::Junction::v2_coefficients`] (Picard
 //! expansion of Y = R [K^theta_theta] in second-order dual numbers, then V(R, Y)) written out by hand, so both
 //! paths agree to rounding; the tests compare them on every shipped scenario and on random points.
-//! Sign conventions and sources are those of [`crate::junction`]: n from minus into plus, [X] = X_plus - X_minus,
+//! Sign conventions and sources are those of [`crate::junction`]: n from minus into plus, \[X\] = X_plus - X_minus,
 //! the Lanczos equation with 8 pi (Israel 1966; Poisson 2004 ch. 3), V''(a0) linear in beta^2 (Poisson & Visser
 //! 1995; Garcia, Lobo & Visser 2012 for A != B and the flux term).
 
@@ -72,7 +72,7 @@ impl Shape {
 /// Formulas (signature -+++, G = c = 1, n = D - 2, Lanczos equation as in [`crate::junction`]; Israel 1966;
 /// Poisson 2004 ch. 3; conservation with the flux term of Garcia, Lobo & Visser 2012). Per side i:
 /// x_i = nu_i sqrt(eps B_i), Phi_i = A_i'/(2A_i) - B_i'/(2B_i),
-/// sigma0 = -eps n (x_+ - x_-)/(8 pi a), p0 = (eps/8 pi)([K^tau_tau] + (n - 1)[x]/a) with
+/// sigma0 = -eps n (x_+ - x_-)/(8 pi a), p0 = (eps/8 pi)([K^tau_tau] + (n - 1)\[x\]/a) with
 /// K^tau_tau_i = nu_i eps B_i'/(2 sqrt(eps B_i)) + x_i Phi_i.
 /// Along the motion Y(R) obeys Y' = G(R, Y) = 8 pi p(sigma) - (X_+ Phi_+ - X_- Phi_-) - (n - 1) Y/R with
 /// sigma = -n Y/(8 pi R), X_+ = (Y + eps dB/Y)/2, X_- = (eps dB/Y - Y)/2, dB = B_+ - B_-, p = p0 + beta^2

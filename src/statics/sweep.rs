@@ -12,6 +12,7 @@ use super::{Stability, StaticsOptions};
 use crate::error::{Error, Result};
 use crate::junction::potential::Law;
 use crate::junction::Junction;
+use crate::newton::{self, NewtonOptions, StepTolerance, Termination};
 use crate::scenario::Scenario;
 use num_dual::Dual64;
 use serde::Serialize;
@@ -162,6 +163,10 @@ fn refine_fold(c: &Ctx, x0: [f64; 2], x1: [f64; 2], x2: [f64; 2]) -> Option<(f64
     Some(c.point_of([u, v]))
 }
 
+/// The corrector: full Newton steps until they sum to less than 1e-13 in (u, v), at most 20.
+const CORRECTOR: NewtonOptions =
+    NewtonOptions { max_iterations: 20, damping_tries: 1, tolerance: StepTolerance::AbsoluteSum(1e-13) };
+
 /// Trace the curve from `x0` in direction `dir` (+1/-1 along the tangent); returns the polyline.
 fn trace(c: &Ctx, x0: [f64; 2], dir: f64, h0: f64, max_steps: usize) -> Vec<[f64; 2]> {
     let mut pts = vec![x0];
@@ -173,23 +178,12 @@ fn trace(c: &Ctx, x0: [f64; 2], dir: f64, h0: f64, max_steps: usize) -> Vec<[f64
     for step in 0..max_steps {
         let pred = [x[0] + h * t[0], x[1] + h * t[1]];
         // Newton corrector on F = [f, t.(y - pred)].
-        let mut y = pred;
-        let mut ok = false;
-        for _ in 0..20 {
-            let Some((f, g)) = c.f(y) else { break };
-            let r2 = t[0] * (y[0] - pred[0]) + t[1] * (y[1] - pred[1]);
-            let det = g[0] * t[1] - g[1] * t[0];
-            if det == 0.0 {
-                break;
-            }
-            let du = (-f * t[1] + r2 * g[1]) / det;
-            let dv = (-r2 * g[0] + f * t[0]) / det;
-            y = [y[0] + du, y[1] + dv];
-            if du.abs() + dv.abs() < 1e-13 {
-                ok = true;
-                break;
-            }
-        }
+        let system = |y: [f64; 2]| {
+            let (f, g) = c.f(y)?;
+            Some(([f, t[0] * (y[0] - pred[0]) + t[1] * (y[1] - pred[1])], [g, t]))
+        };
+        let out = newton::solve(system, |_| true, pred, &CORRECTOR);
+        let (y, ok) = (out.x, matches!(out.termination, Termination::Converged { .. }));
         let dist = ((y[0] - x[0]).powi(2) + (y[1] - x[1]).powi(2)).sqrt();
         if !ok || dist > 3.0 * h || dist < 0.1 * h {
             h *= 0.5;

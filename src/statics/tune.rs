@@ -4,18 +4,18 @@
 //! Method. At a fixed radius, f(a; lambda) = p0 - P(sigma0) is scanned over a range of lambda and every sign change
 //! refined (see `roots`). For marginal configurations the two equations f = 0 and V''(a0) = 0 in the unknowns
 //! (a0, lambda) are solved by Newton's method on the 2x2 system with an exact Jacobian from dual numbers
-//! (nalgebra's LU for the step), started from sign changes of V'' along the curve of static solutions. A direct
-//! Newton step was chosen over a least-squares minimiser because the system is square and its Jacobian exact;
-//! Gauss-Newton on J^T J squares the condition number and stalls where J^T J is singular.
+//! (`newton::solve`, nalgebra's LU for the step), started from sign changes of V'' along the curve of static
+//! solutions. A direct Newton step was chosen over a least-squares minimiser because the system is square and its
+//! Jacobian exact; Gauss-Newton on J^T J squares the condition number and stalls where J^T J is singular.
 //! Sensitivity: da0/dlambda = -f_lambda / f_a (implicit-function theorem), with both partials from dual numbers.
 
 use super::{residual, Stability, StaticsOptions};
 use crate::error::{Error, Result};
 use crate::junction::potential::Law;
 use crate::junction::Junction;
+use crate::newton::{self, NewtonOptions, StepTolerance, Termination};
 use crate::roots::{find_roots, RootOptions};
 use crate::scenario::Scenario;
-use nalgebra::{Matrix2, Vector2};
 use num_dual::Dual64;
 use serde::Serialize;
 
@@ -149,33 +149,17 @@ pub fn tune_at_radius(
     })
 }
 
-/// Newton's method on (f, V'') = 0 in (a, lambda); returns the converged point.
-fn newton_marginal(s: &Scenario, k: usize, mut a: f64, mut lam: f64) -> Option<(f64, f64)> {
-    for _ in 0..60 {
-        let (f, g) = eval(s, k, a, lam, true)?;
-        let jac = Matrix2::new(f[1], f[2], g[1], g[2]);
-        let rhs = Vector2::new(-f[0], -g[0]);
-        let step = jac.lu().solve(&rhs)?;
-        // Damp steps that would leave the static domain.
-        let mut t = 1.0;
-        let mut accepted = false;
-        for _ in 0..30 {
-            let (na, nl) = (a + t * step[0], lam + t * step[1]);
-            if na > 0.0 && eval(s, k, na, nl, false).is_some() {
-                a = na;
-                lam = nl;
-                accepted = true;
-                break;
-            }
-            t *= 0.5;
-        }
-        if !accepted {
-            return None;
-        }
-        if (t * step[0]).abs() <= 1e-14 * a.abs().max(1.0) && (t * step[1]).abs() <= 1e-14 * lam.abs().max(1.0) {
-            break;
-        }
+/// Newton's method on (f, V'') = 0 in (a, lambda) (`newton::solve`, steps damped to stay in the static domain);
+/// returns the point reached if both residuals are then negligible.
+fn newton_marginal(s: &Scenario, k: usize, a: f64, lam: f64) -> Option<(f64, f64)> {
+    let opts = NewtonOptions { max_iterations: 60, damping_tries: 30, tolerance: StepTolerance::Relative(1e-14) };
+    let system = |x: [f64; 2]| eval(s, k, x[0], x[1], true).map(|(f, g)| ([f[0], g[0]], [[f[1], f[2]], [g[1], g[2]]]));
+    let accept = |x: [f64; 2]| x[0] > 0.0 && eval(s, k, x[0], x[1], false).is_some();
+    let out = newton::solve(system, accept, [a, lam], &opts);
+    if !matches!(out.termination, Termination::Converged { .. } | Termination::MaxIterations) {
+        return None;
     }
+    let [a, lam] = out.x;
     let (f, g) = eval(s, k, a, lam, true)?;
     let fs = f[1].abs() * a.abs() + f[2].abs() * lam.abs().max(1.0);
     let gs = g[1].abs() * a.abs() + g[2].abs() * lam.abs().max(1.0);

@@ -2,7 +2,8 @@
 //!
 //! The full search ([`super::search`]) samples the range densely for horizons and for roots of
 //! f(a) = p0(a) - P(sigma0(a)). Next to a point already searched, the structure is known: how many horizons each
-//! side has and how many static radii lie between them. [`continue_search`] samples coarsely, refines every sign
+//! side has and how many static radii lie between them. [`continue_search`] samples coarsely (adding the midpoint
+//! between each two neighbouring predicted roots, so that a close pair near a fold stays bracketed), refines every sign
 //! change with the same safeguarded Newton-bisection as the full search (`roots::refine`), and accepts the result
 //! only if it reproduces the neighbour's structure exactly: the same number of simple horizons per side, the
 //! same number of static radii in each window between cuts, none of them double, near a horizon or next to a pole,
@@ -51,7 +52,7 @@ pub fn continue_search(
             Some((d.re, d.eps))
         };
         let guesses: Vec<f64> = prev.cuts.iter().filter(|c| c.side == w).map(|c| c.radius).collect();
-        let (found, poles) = sign_changes(&value, &b, &sample_points(lo, hi, COARSE_SAMPLES), &guesses, opts)?;
+        let (found, poles) = sign_changes(&value, &b, &samples_with_gaps(lo, hi, &guesses), &guesses, opts)?;
         if !poles.is_empty() || found.len() != prev.cuts.iter().filter(|c| c.side == w).count() {
             return None;
         }
@@ -74,8 +75,9 @@ pub fn continue_search(
     let mut radii = Vec::new();
     let mut poles = Vec::new();
     for (iv, old) in intervals.iter().zip(&prev.intervals) {
-        let xs = sample_points(iv.from, iv.to, COARSE_SAMPLES);
         let inside = |r: f64| r >= old.from && r <= old.to;
+        let guesses: Vec<f64> = prev.static_radii.iter().map(|r| r.radius).filter(|&r| inside(r)).collect();
+        let xs = samples_with_gaps(iv.from, iv.to, &guesses);
         // One plain evaluation per sample serves the sign scan and the test for a neutral family.
         let neutral = std::cell::Cell::new(false);
         let value = |a: f64| {
@@ -84,7 +86,6 @@ pub fn continue_search(
             neutral.set(neutral.get() || is_rounding(v, &sv, opts));
             Some(v)
         };
-        let guesses: Vec<f64> = prev.static_radii.iter().map(|r| r.radius).filter(|&r| inside(r)).collect();
         let (roots, new_poles) = sign_changes(&value, &f, &xs, &guesses, opts)?;
         if neutral.get() {
             return None;
@@ -109,6 +110,16 @@ pub fn continue_search(
         cuts,
         windows,
     })
+}
+
+/// The coarse samples of [lo, hi] plus the midpoint between each two consecutive predicted roots: a pair of
+/// roots closer together than the coarse spacing (near a fold) is then still bracketed while it persists.
+fn samples_with_gaps(lo: f64, hi: f64, predicted: &[f64]) -> Vec<f64> {
+    let mut xs = sample_points(lo, hi, COARSE_SAMPLES);
+    xs.extend(predicted.windows(2).map(|w| 0.5 * (w[0] + w[1])).filter(|&m| m > lo && m < hi));
+    xs.sort_by(f64::total_cmp);
+    xs.dedup();
+    xs
 }
 
 /// Every sign change of `value` between consecutive samples `xs`, refined to a root of `f` (value and

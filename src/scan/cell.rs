@@ -191,6 +191,9 @@ pub struct Evaluator<'a> {
     spec: &'a MapSpec,
     statics: StaticsOptions,
     fast: Option<FastJunction>,
+    /// The grid values of the x and y axes, computed once (`grid_value` rounds each to its shortest decimal
+    /// form, which costs far more than evaluating a cell on a beta^2 line).
+    values: [Vec<f64>; 2],
 }
 
 impl<'a> Evaluator<'a> {
@@ -206,7 +209,9 @@ impl<'a> Evaluator<'a> {
             ..Default::default()
         };
         let fast = (method == Method::Fast).then(|| FastJunction::new(s));
-        Ok(Evaluator { s, spec, statics, fast })
+        let values =
+            [(0..spec.x.n).map(|i| spec.x.value(i)).collect(), (0..spec.y.n).map(|i| spec.y.value(i)).collect()];
+        Ok(Evaluator { s, spec, statics, fast, values })
     }
 
     /// Parameters and radius (NaN if no radius axis) for a point with axis values (x, y).
@@ -254,7 +259,7 @@ impl<'a> Evaluator<'a> {
         let n = spec.line_len();
         let xy = |j: usize| {
             let (ix, iy) = spec.cell_index(i, j);
-            (ix, iy, spec.x.value(ix), spec.y.value(iy))
+            (ix, iy, self.values[0][ix], self.values[1][iy])
         };
         let beta_axis = spec.x.kind == AxisKind::Beta2 || spec.y.kind == AxisKind::Beta2;
         let along = if spec.lines_are_columns() { spec.y.kind } else { spec.x.kind };
@@ -268,10 +273,10 @@ impl<'a> Evaluator<'a> {
                 None => static_point(&Junction::with_params(&self.s.model, params.clone()), radius),
             };
             let bits = res.map(|(sigma, p, _, _)| energy_bits(EnergyConditions::evaluate(sigma, p, self.s.dimension)));
-            let (axis, other) = if spec.lines_are_columns() { (&spec.y, x0) } else { (&spec.x, y0) };
+            let (axis, other) = if spec.lines_are_columns() { (&self.values[1], x0) } else { (&self.values[0], y0) };
             for jj in 0..n {
                 let (ix, iy) = spec.cell_index(i, jj);
-                let beta2 = axis.value(jj);
+                let beta2 = axis[jj];
                 let (x, y) = if spec.lines_are_columns() { (other, beta2) } else { (beta2, other) };
                 emit(match (res, bits) {
                     (Ok(v), Ok(b)) => self.radius_cell(ix, iy, x, y, radius, beta2, v, b),
@@ -282,9 +287,9 @@ impl<'a> Evaluator<'a> {
             // Parameters fixed along the line: batch the metric functions over all its radii.
             let (_, _, x0, y0) = xy(0);
             self.point(x0, y0, &mut params);
-            let (axis, other) = if spec.lines_are_columns() { (&spec.y, x0) } else { (&spec.x, y0) };
+            let (axis, other) = if spec.lines_are_columns() { (&self.values[1], x0) } else { (&self.values[0], y0) };
             scratch.xs.clear();
-            scratch.xs.extend((0..n).map(|jj| axis.value(jj)));
+            scratch.xs.extend_from_slice(&axis[..n]);
             f.eval_line_coefficients(&params, scratch);
             for jj in 0..n {
                 let (ix, iy) = spec.cell_index(i, jj);

@@ -5,7 +5,7 @@
 //! - [`apex`]: the maximal radius of a bounded orbit and its areal and proper distance to the horizon, carried
 //!   to full relative precision right next to the horizon.
 //! - [`crossing`]: the crossing map minus -> plus for static, moving (timelike) and spacelike shells.
-//! - [`chain`] / [`iterate`]: chain files and the iterated crossing map; [`series`]: data for a figure.
+//! - [`chain`](mod@chain) / [`iterate`]: chain files and the iterated crossing map; [`series`]: data for a figure.
 //! - [`report()`] and [`chain()`]: a crossing with the orbit on each side, and a chain of crossings, from plain
 //!   requests ([`CrossingRequest`], [`ChainRequest`]) as the command line and the bindings fill them; their
 //!   result structs live in [`report`](mod@report).

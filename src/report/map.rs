@@ -63,7 +63,7 @@ pub fn check_size(spec: &MapSpec, to_files: bool) -> Result<()> {
     Ok(())
 }
 
-/// Counts over `lines` of the map as one JSON object: the [`Summary`] fields plus `provenance`, `x`, `y`.
+/// Counts over `lines` of the map as one JSON object: the [`Summary`](crate::scan::Summary) fields plus `provenance`, `x`, `y`.
 pub fn map_summary(s: &Scenario, spec: &MapSpec, lines: std::ops::Range<usize>) -> Result<serde_json::Value> {
     let sum = summarize_lines(s, spec, lines)?;
     let mut v = serde_json::to_value(sum).unwrap_or_default();

@@ -274,9 +274,8 @@ impl<'a> Evaluator<'a> {
             };
             let bits = res.map(|(sigma, p, _, _)| energy_bits(EnergyConditions::evaluate(sigma, p, self.s.dimension)));
             let (axis, other) = if spec.lines_are_columns() { (&self.values[1], x0) } else { (&self.values[0], y0) };
-            for jj in 0..n {
+            for (jj, &beta2) in axis.iter().enumerate().take(n) {
                 let (ix, iy) = spec.cell_index(i, jj);
-                let beta2 = axis[jj];
                 let (x, y) = if spec.lines_are_columns() { (other, beta2) } else { (beta2, other) };
                 emit(match (res, bits) {
                     (Ok(v), Ok(b)) => self.radius_cell(ix, iy, x, y, radius, beta2, v, b),

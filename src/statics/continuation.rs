@@ -52,7 +52,7 @@ pub fn continue_search(
             Some((d.re, d.eps))
         };
         let guesses: Vec<f64> = prev.cuts.iter().filter(|c| c.side == w).map(|c| c.radius).collect();
-        let (found, poles) = sign_changes(&value, &b, &samples_with_gaps(lo, hi, &guesses), &guesses, opts)?;
+        let (found, poles) = sign_changes(&value, &b, &samples_with_gaps(lo, hi, &guesses), (&guesses, &[]), opts)?;
         if !poles.is_empty() || found.len() != prev.cuts.iter().filter(|c| c.side == w).count() {
             return None;
         }
@@ -86,7 +86,8 @@ pub fn continue_search(
             neutral.set(neutral.get() || is_rounding(v, &sv, opts));
             Some(v)
         };
-        let (roots, new_poles) = sign_changes(&value, &f, &xs, &guesses, opts)?;
+        let known_poles: Vec<f64> = prev.poles_rejected.iter().copied().filter(|&p| inside(p)).collect();
+        let (roots, new_poles) = sign_changes(&value, &f, &xs, (&guesses, &known_poles), opts)?;
         if neutral.get() {
             return None;
         }
@@ -124,13 +125,15 @@ fn samples_with_gaps(lo: f64, hi: f64, predicted: &[f64]) -> Vec<f64> {
 
 /// Every sign change of `value` between consecutive samples `xs`, refined to a root of `f` (value and
 /// derivative) and sorted into roots and poles (a sign change where |f| does not drop below its end values);
-/// `None` if the function is undefined at a sample or vanishes exactly at one. Newton starts from the `guesses`
-/// (the neighbour's roots, in order) that fall in a bracket, else from its midpoint.
+/// `None` if the function is undefined at a sample or vanishes exactly at one. Newton starts from the predicted
+/// roots (`predicted.0`, the neighbour's, in order) that fall in a bracket, else from its midpoint. A bracket
+/// that holds a predicted pole (`predicted.1`) and no predicted root is bisected on `value` alone to a relative
+/// width of [`POLE_WIDTH`]: a pole only bounds the search, and Newton steps are of no use next to one.
 fn sign_changes<V, F>(
     value: &V,
     f: &F,
     xs: &[f64],
-    guesses: &[f64],
+    predicted: (&[f64], &[f64]),
     opts: &StaticsOptions,
 ) -> Option<(Vec<f64>, Vec<f64>)>
 where
@@ -145,10 +148,22 @@ where
     for k in 0..xs.len() - 1 {
         if vs[k].signum() != vs[k + 1].signum() {
             let (a, b) = (xs[k], xs[k + 1]);
-            let guess = guesses.iter().copied().find(|&g| g > a && g < b).unwrap_or(0.5 * (a + b));
-            let x = refine_from(f, (a, vs[k]), (b, vs[k + 1]), guess, &opts.roots)?;
-            let (v, _) = f(x)?;
-            if v.abs() > vs[k].abs().min(vs[k + 1].abs()) {
+            let within = |g: &f64| *g > a && *g < b;
+            let guess = predicted.0.iter().copied().find(within);
+            let end_min = vs[k].abs().min(vs[k + 1].abs());
+            let refined = |x0: f64| {
+                let x = refine_from(f, (a, vs[k]), (b, vs[k + 1]), x0, &opts.roots)?;
+                Some((x, f(x)?.0))
+            };
+            let (x, v) = match (guess, predicted.1.iter().any(within)) {
+                // Not a pole after all: a root, refined to full precision from where the bisection stopped.
+                (None, true) => match bisect(value, (a, vs[k]), (b, vs[k + 1]))? {
+                    (x, v) if v.abs() <= end_min => refined(x)?,
+                    pole => pole,
+                },
+                _ => refined(guess.unwrap_or(0.5 * (a + b)))?,
+            };
+            if v.abs() > end_min {
                 poles.push(x);
             } else {
                 roots.push(x);
@@ -156,4 +171,27 @@ where
         }
     }
     Some((roots, poles))
+}
+
+/// Relative width to which a predicted pole is bracketed.
+pub const POLE_WIDTH: f64 = 1e-7;
+
+/// Bisection of a sign change of `value` on [a, b] to a relative width of [`POLE_WIDTH`]: the midpoint and the
+/// value there.
+fn bisect<V: Fn(f64) -> Option<f64>>(value: &V, (mut a, fa): (f64, f64), (mut b, _): (f64, f64)) -> Option<(f64, f64)> {
+    let mut m = 0.5 * (a + b);
+    let mut vm = value(m)?;
+    while (b - a).abs() > POLE_WIDTH * m.abs() {
+        if vm.signum() == fa.signum() {
+            a = m;
+        } else {
+            b = m;
+        }
+        m = 0.5 * (a + b);
+        vm = value(m)?;
+        if vm == 0.0 {
+            break;
+        }
+    }
+    Some((m, vm))
 }

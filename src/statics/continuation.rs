@@ -2,15 +2,16 @@
 //!
 //! The full search ([`super::search`]) samples the range densely for horizons and for roots of
 //! f(a) = p0(a) - P(sigma0(a)). Next to a point already searched, the structure is known: how many horizons each
-//! side has and how many static radii lie between them. [`continue_search`] samples coarsely (adding the midpoint
-//! between each two neighbouring predicted roots, so that a close pair near a fold stays bracketed), refines every sign
-//! change with the same safeguarded Newton-bisection as the full search (`roots::refine`), and accepts the result
-//! only if it reproduces the neighbour's structure exactly: the same number of simple horizons per side, the
-//! same number of static radii in each window between cuts, none of them double, near a horizon or next to a pole,
-//! and no sample where the static condition holds identically. Anything else returns `None`, and the caller runs
-//! the full search. Structure that appears between two coarse samples and nowhere else (a pair of static radii
-//! closer than the coarse spacing, born between two neighbouring cells) is found once it has grown to the
-//! spacing, or at the next full search (the first cell of every line).
+//! side has and how many static radii and poles of f lie between them. [`continue_search`] samples coarsely
+//! (adding the midpoint between each two neighbouring predicted roots, so that a close pair near a fold stays
+//! bracketed), refines every sign change with the safeguarded Newton-bisection of the full search started from
+//! the neighbour's root (`roots::refine_from`; a bracket holding the neighbour's pole is only bisected), and
+//! accepts the result only if it reproduces the neighbour's structure exactly: the same number of simple horizons
+//! per side, the same number of static radii and of poles in each window between cuts, no radius double or
+//! within 1e-6 of a horizon, and no sample where the static condition holds identically. Anything else returns
+//! `None`, and the caller runs the full search. Structure that appears between two coarse samples and nowhere
+//! else (a pair of static radii closer than the coarse spacing, born between two neighbouring cells) is found once
+//! it has grown to the spacing, or at the next full search (the first cell of every line).
 
 use super::{
     classify, intervals_between, is_rounding, radius_notes, residual_with_jets, Cut, CutKind, StaticSearch,

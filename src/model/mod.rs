@@ -56,14 +56,4 @@ impl Model {
             Which::Plus => &self.plus,
         }
     }
-
-    /// The index of parameter `name` in the value vectors.
-    pub fn index(&self, name: &str) -> Option<usize> {
-        self.names.iter().position(|n| n == name)
-    }
-
-    /// eps = n.n: +1 for a timelike shell, -1 for a spacelike one.
-    pub fn eps(&self) -> f64 {
-        self.kind.eps()
-    }
 }

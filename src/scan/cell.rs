@@ -429,12 +429,8 @@ impl<'a> Evaluator<'a> {
             (Some(p), true) => continue_search(model, params, p, lo, hi, &self.statics),
             _ => None,
         };
-        let found = match continued {
-            Some(c) => Ok(c),
-            None => search(model, params, lo, hi, &self.statics),
-        };
-        *prev = found.as_ref().ok().cloned();
-        let Ok(rep) = found else {
+        *prev = continued.or_else(|| search(model, params, lo, hi, &self.statics).ok());
+        let Some(rep) = prev.as_ref() else {
             return Cell::empty(ix, iy, x, y, CellClass::NoStatic);
         };
         let pick = match self.spec.root_rule {

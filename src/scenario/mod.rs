@@ -207,21 +207,28 @@ impl Params {
 
     /// Override parameter `name` (must exist and the value must be finite).
     pub fn set(&mut self, name: &str, value: f64) -> Result<()> {
+        let k = self.checked(name, value)?;
+        self.values[k] = value;
+        Ok(())
+    }
+
+    /// The index of `name` if `value` may be given to it (finite, inside the supported magnitudes).
+    fn checked(&self, name: &str, value: f64) -> Result<usize> {
         let k = self.index(name)?;
         if !value.is_finite() {
             return Err(Error::input(format!("parameter '{name}' = {value} is not a finite number")));
         }
         check_magnitude(name, value)?;
-        self.values[k] = value;
-        Ok(())
+        Ok(k)
     }
 
     /// The value vector with parameter `name` set to `value` (checked as by [`Params::set`]), for a model
     /// evaluated at other parameter values without copying the scenario.
     pub fn values_with(&self, name: &str, value: f64) -> Result<Vec<f64>> {
-        let mut p = self.clone();
-        p.set(name, value)?;
-        Ok(p.values)
+        let k = self.checked(name, value)?;
+        let mut values = self.values.clone();
+        values[k] = value;
+        Ok(values)
     }
 
     /// `name = value` pairs, for provenance lines.

@@ -9,7 +9,8 @@
 //! accepts the result only if it reproduces the neighbour's structure exactly: the same number of simple horizons
 //! per side, the same number of static radii and of poles in each window between cuts, no radius double or
 //! within 1e-6 of a horizon, and no sample where the static condition holds identically. Anything else returns
-//! `None`, and the caller runs the full search. Structure that appears between two coarse samples and nowhere
+//! `None`, and the caller runs the full search; so does every model with a side whose B differs from A (its
+//! zeros of A off a horizon cut the range and are not continued). Structure that appears between two coarse samples and nowhere
 //! else (a pair of static radii closer than the coarse spacing, born between two neighbouring cells) is found once
 //! it has grown to the spacing, or at the next full search (the first cell of every line).
 

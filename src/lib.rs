@@ -51,6 +51,7 @@ pub mod spacing;
 pub mod statics;
 pub mod survey;
 pub mod text;
+pub mod tolerances;
 pub mod units;
 
 pub use error::{Error, ErrorKind, Problem, RequestField, Result};

@@ -122,7 +122,7 @@ pub fn horizons(fns: &SideFns, lo: f64, hi: f64, opts: &RootOptions) -> (Vec<Hor
                 Horizon { radius: x, degenerate: k >= 2, b_slope: if k >= 2 { 0.0 } else { d.v1 } }
             })
             .collect();
-        let tol = crate::rational::CLUSTER_TOL;
+        let tol = crate::tolerances::TOL.horizon.root_cluster;
         hs.retain(|h| !exact.iter().any(|e| (e.radius - h.radius).abs() <= tol * e.radius.abs().max(1e-300)));
         hs.extend(exact);
         hs.sort_by(|a, b| a.radius.total_cmp(&b.radius));

@@ -13,9 +13,6 @@ use nalgebra::DMatrix;
 /// Largest polynomial degree handled (beyond it the companion matrix is too ill-conditioned to trust).
 pub const MAX_DEGREE: usize = 24;
 
-/// Eigenvalues closer than this (relative to their size) are one root of higher multiplicity.
-pub const CLUSTER_TOL: f64 = 1e-5;
-
 /// A polynomial, coefficients in ascending powers.
 pub type Poly = Vec<f64>;
 
@@ -128,10 +125,11 @@ fn eval_deriv(p: &[f64], x: f64, k: usize) -> f64 {
 }
 
 /// The real roots of a polynomial in [lo, hi] with their multiplicities, sorted: eigenvalues of the companion
-/// matrix, clustered within [`CLUSTER_TOL`] (a root of multiplicity k splits into k eigenvalues about
+/// matrix, clustered within `Tolerances::horizon.root_cluster` (a root of multiplicity k splits into k eigenvalues about
 /// eps^(1/k) apart), kept when the cluster's mean is real to within the same tolerance, and polished by Newton's
 /// method on the (k-1)-th derivative, for which the root is simple.
 pub fn real_roots(p: &[f64], lo: f64, hi: f64) -> Vec<(f64, usize)> {
+    let cluster = crate::tolerances::TOL.horizon.root_cluster;
     let p = trim(p.to_vec());
     let n = p.len() - 1;
     if n == 0 || p.iter().any(|c| !c.is_finite()) {
@@ -165,7 +163,7 @@ pub fn real_roots(p: &[f64], lo: f64, hi: f64) -> Vec<(f64, usize)> {
         }
         let size = (eig[i].0.hypot(eig[i].1)).max(1e-300);
         let members: Vec<usize> = (i..eig.len())
-            .filter(|&j| !used[j] && (eig[j].0 - eig[i].0).hypot(eig[j].1 - eig[i].1) <= CLUSTER_TOL * size.max(1e-12))
+            .filter(|&j| !used[j] && (eig[j].0 - eig[i].0).hypot(eig[j].1 - eig[i].1) <= cluster * size.max(1e-12))
             .collect();
         for &j in &members {
             used[j] = true;
@@ -173,7 +171,7 @@ pub fn real_roots(p: &[f64], lo: f64, hi: f64) -> Vec<(f64, usize)> {
         let k = members.len();
         let re = members.iter().map(|&j| eig[j].0).sum::<f64>() / k as f64;
         let im = members.iter().map(|&j| eig[j].1).sum::<f64>() / k as f64;
-        if im.abs() > CLUSTER_TOL * re.abs().max(1e-300) {
+        if im.abs() > cluster * re.abs().max(1e-300) {
             continue;
         }
         let mut x = re;
@@ -184,7 +182,7 @@ pub fn real_roots(p: &[f64], lo: f64, hi: f64) -> Vec<(f64, usize)> {
                 break;
             }
             let dx = f / d;
-            if !dx.is_finite() || dx.abs() > CLUSTER_TOL * x.abs().max(1e-300) {
+            if !dx.is_finite() || dx.abs() > cluster * x.abs().max(1e-300) {
                 break;
             }
             x -= dx;

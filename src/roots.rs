@@ -8,7 +8,7 @@
 //! shrinks is a pole, not a root. Local minima of |f| between samples with a sign change of f' are refined
 //! as roots of f'; where f is also zero there the root is reported as a double root (ill-conditioned).
 
-/// Tolerances for root finding, in one place.
+/// Root-finding settings; the default tolerances are the named fields of `tolerances::Tolerances::roots`.
 #[derive(Debug, Clone, Copy)]
 pub struct RootOptions {
     /// Number of samples across the interval.
@@ -25,7 +25,14 @@ pub struct RootOptions {
 
 impl Default for RootOptions {
     fn default() -> Self {
-        RootOptions { samples: 2000, x_rel_tol: 1e-14, max_iter: 200, pole_ratio: 1e3, double_root_tol: 1e-9 }
+        let t = crate::tolerances::TOL.roots;
+        RootOptions {
+            samples: 2000,
+            x_rel_tol: t.x_rel,
+            max_iter: 200,
+            pole_ratio: t.pole_ratio,
+            double_root_tol: t.double_root,
+        }
     }
 }
 

@@ -175,7 +175,7 @@ fn closed_forms_agree_with_the_numeric_path() {
                     // (|sigma| far below the size of its terms) the numeric sigma keeps only a few digits and
                     // its V'' cannot serve as the reference at 1e-12: such points check sigma, p and V only.
                     if sg.abs() >= 1e-4 * scale {
-                        let (c0, c1) = j.v2_coefficients(&sv).unwrap();
+                        let (c0, c1) = j.v2_coefficients(&sv);
                         let cs = c0.abs().max(c1.abs());
                         // The numeric V'' comes from a dual-number Taylor expansion along the motion whose terms
                         // exceed |V''| severalfold: relative to 10 max(|c0|, |c1|) (V'' for 0 <= beta^2 <= 10).

@@ -3,8 +3,9 @@
 
 use super::dopri::Vec3;
 use crate::junction::potential::potential_from_y;
-use crate::junction::{admissible, phi_prime, Junction, HORIZON_TOL};
+use crate::junction::{admissible, phi_prime, Junction};
 use crate::scenario::Which;
+use crate::tolerances::TOL;
 use num_dual::Dual64;
 
 /// Why the motion cannot be continued from a state (a stop condition).
@@ -157,11 +158,11 @@ impl<'j, 'a> Motion<'j, 'a> {
     }
 
     /// True if R is (numerically) on a horizon of either side: |B| within `tol` relative to 1 + R |B'|, the
-    /// same test as `Junction::check_static_radius` with `HORIZON_TOL` there.
+    /// same test as `Junction::check_static_radius` with `Tolerances::horizon.on_horizon` there.
     pub fn near_horizon(&self, r: f64, tol: f64) -> Option<Which> {
         [Which::Minus, Which::Plus].into_iter().find(|&w| {
             let jet = self.j.jet(w, r);
-            admissible::near_horizon(r, jet.b[0], jet.b[1], tol.max(HORIZON_TOL))
+            admissible::near_horizon(r, jet.b[0], jet.b[1], tol.max(TOL.horizon.on_horizon))
         })
     }
 }

@@ -7,13 +7,14 @@ use super::integrate::{integrate, Event, EvolveOptions, Trajectory};
 use super::motion::Motion;
 use crate::error::{Error, ErrorKind, RequestField as F, Result};
 use crate::junction::potential::Law;
-use crate::junction::stability::{marginal_scale, MARGINAL_TOL};
+use crate::junction::stability::marginal_scale;
 use crate::junction::{admissible, Junction};
 use crate::metric::RegionKind;
 use crate::phrase;
 use crate::scenario::Which;
 use crate::scenario::{Scenario, ShellKind};
 use crate::statics::{find_static_radii, residual, StaticsOptions};
+use crate::tolerances::TOL;
 use rayon::prelude::*;
 use serde::Serialize;
 
@@ -67,9 +68,6 @@ impl Start {
     }
 }
 
-/// |V(R, sigma)| below this, relative to 1 + |B_minus| + |B_plus|, counts as a turning point for a `Start::Sigma`.
-pub const TURNING_TOL: f64 = 1e-12;
-
 /// One side along the motion: its horizons and where the shell was at the start and at the end.
 #[derive(Debug, Clone, Serialize)]
 pub struct SideMotion {
@@ -90,12 +88,6 @@ pub struct SideMotion {
     /// Number of flips of the normal on this side.
     pub normal_flips: usize,
 }
-
-/// Relative residual |p0 - P(sigma0)| / (|p0| + |sigma0|) below which a radius counts as static.
-pub const STATIC_TOL: f64 = 1e-9;
-
-/// Relative distance within which a requested radius that is not static is moved to the nearby static radius.
-pub const SNAP_TOL: f64 = 1e-3;
 
 /// A starting state of the motion.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
@@ -195,16 +187,17 @@ pub fn static_start(s: &Scenario, radius: f64, notes: &mut Vec<String>) -> Resul
     let static_ok = |a: f64| -> Option<f64> {
         let (f, sv) = residual(&j, a)?;
         let scale = sv.stress.pressure().abs() + sv.stress.sigma().abs();
-        (f.abs() <= STATIC_TOL * scale.max(f64::MIN_POSITIVE)).then_some(f.abs())
+        (f.abs() <= TOL.motion.static_residual * scale.max(f64::MIN_POSITIVE)).then_some(f.abs())
     };
     if static_ok(radius).is_some() {
         return Ok(radius);
     }
     j.static_values(radius).map_err(|e| e.context_phrase(phrase![F::Radius, format!(" {radius}")]))?;
-    let near = find_static_radii(s, radius * (1.0 - SNAP_TOL), radius * (1.0 + SNAP_TOL), &StaticsOptions::default())?;
+    let snap = TOL.motion.snap_to_static;
+    let near = find_static_radii(s, radius * (1.0 - snap), radius * (1.0 + snap), &StaticsOptions::default())?;
     match near.static_radii.as_slice() {
         [one] if static_ok(one.radius).is_some() => {
-            notes.push(format!("--radius {radius} is not exactly static; using the static radius a0 = {} of the law found within a relative {SNAP_TOL:.0e}", one.radius));
+            notes.push(format!("--radius {radius} is not exactly static; using the static radius a0 = {} of the law found within a relative {snap:.0e}", one.radius));
             Ok(one.radius)
         }
         _ => {
@@ -335,13 +328,12 @@ pub fn initial_from_data(s: &Scenario, j: &Junction<f64>, r: f64, start: Start) 
     let jets = [j.jet(Which::Minus, r), j.jet(Which::Plus, r)];
     for (w, jet) in [Which::Minus, Which::Plus].into_iter().zip(&jets) {
         j.check_finite_jet(w, r, jet, 1).map_err(|e| e.context_phrase(phrase![F::Radius, format!(" {r}")]))?;
-        if admissible::near_horizon(r, jet.b[0], jet.b[1], crate::junction::HORIZON_TOL) {
+        if admissible::near_horizon(r, jet.b[0], jet.b[1], TOL.horizon.on_horizon) {
             let message = phrase![
                 F::Radius,
                 format!(
                     " {r} is on (or numerically within {:.0e} of) a horizon of the {w} side: B = {:e}",
-                    crate::junction::HORIZON_TOL,
-                    jet.b[0]
+                    TOL.horizon.on_horizon, jet.b[0]
                 )
             ];
             return Err(Error::request(ErrorKind::Input, F::Radius, r, message)
@@ -394,13 +386,13 @@ pub fn initial_from_data(s: &Scenario, j: &Junction<f64>, r: f64, start: Start) 
             }
             let v = j.potential_sigma(r, sigma);
             let scale = 1.0 + jets[0].b[0].abs() + jets[1].b[0].abs();
-            if v > TURNING_TOL * scale {
+            if v > TOL.motion.turning_point * scale {
                 return Err(at_radius(what, format!(
                     ": V(R, sigma) = {v:.6e} > 0, so Rdot^2 = -V < 0: no shell state exists there (the energy constraint Rdot^2 + V = 0 cannot hold)"
                 ))
                 .with_hint_phrase(phrase!["choose a radius inside the allowed region of this sigma, or give ", F::Velocity, " instead (sigma then follows from the junction condition)"]));
             }
-            let speed = if v.abs() <= TURNING_TOL * scale { 0.0 } else { (-v).sqrt() };
+            let speed = if v.abs() <= TOL.motion.turning_point * scale { 0.0 } else { (-v).sqrt() };
             let rdot = match (speed > 0.0, outward) {
                 (false, _) => 0.0,
                 (true, Some(true)) => speed,
@@ -556,11 +548,11 @@ pub fn evolve(
             .ok_or_else(|| Error::numerical(format!("the law is undefined at the static radius {a0}")))?;
         let v2 = j.potential_taylor(&sv, Law::Scenario).map(|v| v[2]).unwrap_or(f64::NAN);
         let beta2 = j.law_and_slope(sv.stress.sigma()).map(|(_, b)| b);
-        let scale = match (j.linear_stability(&sv), beta2) {
-            (Ok(ls), Some(b)) => marginal_scale(&ls, b, a0),
-            _ => 1.0 / (a0 * a0),
+        let scale = match beta2 {
+            Some(b) => marginal_scale(&j.linear_stability(&sv), b, a0),
+            None => 1.0 / (a0 * a0),
         };
-        let marginal = v2.abs() <= MARGINAL_TOL * scale;
+        let marginal = v2.abs() <= TOL.stability.marginal * scale;
         let init = initial_state(&j, a0, start)?;
         (Some(StaticPart { a0, sigma: sv.stress.sigma(), residual: res.abs(), v2, marginal }), init)
     } else {

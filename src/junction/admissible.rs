@@ -4,7 +4,7 @@
 //! A static shell at r = a needs, on each side (common practice; the R/T-region language as in the module doc of
 //! [`crate::junction`]):
 //! 1. A, B and B' finite there;
-//! 2. a not (numerically) on a horizon: |B| > [`HORIZON_TOL`] (1 + a |B'|) — the junction formulas divide by
+//! 2. a not (numerically) on a horizon: |B| > `Tolerances::horizon.on_horizon` (1 + a |B'|) — the junction formulas divide by
 //!    sqrt(|B|), and a shell on a horizon is a null shell;
 //! 3. no change of signature: A and B of one sign (their zeros coincide);
 //! 4. the region the shell kind needs: B > 0 (an R-region, r = const timelike) for a timelike shell, B < 0 for a
@@ -13,8 +13,9 @@
 //!
 //! A moving shell needs only 1 and 3 (it crosses horizons; see `dynamics`).
 
-use super::{Jet, HORIZON_TOL};
+use super::Jet;
 use crate::scenario::{Keep, ShellKind, Which};
+use crate::tolerances::TOL;
 use std::fmt;
 
 /// Why a shell cannot sit at a radius.
@@ -106,7 +107,8 @@ impl fmt::Display for Inadmissible {
             Inadmissible::NotFinite { side } => write!(f, "A, B or B' of the {side} side is not finite there"),
             Inadmissible::OnHorizon { side, b } => write!(
                 f,
-                "it is on (or numerically within {HORIZON_TOL:.0e} of) a horizon of the {side} side: B = {b:e}"
+                "it is on (or numerically within {:.0e} of) a horizon of the {side} side: B = {b:e}",
+                TOL.horizon.on_horizon
             ),
             Inadmissible::Signature { side, a, b } => write!(
                 f,
@@ -167,7 +169,7 @@ pub fn static_side(
     if !(a.is_finite() && b.is_finite() && b1.is_finite()) {
         return Err(Inadmissible::NotFinite { side });
     }
-    if near_horizon(r, b, b1, HORIZON_TOL) {
+    if near_horizon(r, b, b1, TOL.horizon.on_horizon) {
         return Err(Inadmissible::OnHorizon { side, b });
     }
     signature(side, a, b, b1)?;

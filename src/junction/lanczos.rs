@@ -3,6 +3,7 @@
 use super::{Jet, Junction};
 use crate::error::{Error, Result};
 use crate::expr::Scalar;
+use crate::model::Shape;
 use crate::scenario::{ShellKind, Which};
 
 /// Mixed components of the extrinsic curvatures and of the surface stress tensor at one shell state.
@@ -53,48 +54,80 @@ pub struct StaticValues<T> {
     pub jets: [Jet<T>; 2],
 }
 
+/// A shell state that cannot exist: on `side`, W^2 = Rdot^2 + eps B = `w2` <= 0.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct NoState {
+    /// The side where it fails.
+    pub side: Which,
+    /// W^2 there.
+    pub w2: f64,
+}
+
+/// Extrinsic curvature and surface stress at a shell state (r, Rdot, Rddot) from the jets of both sides
+/// ([minus, plus]; A, B and their first derivatives are read) and the junction's shape: the one place the
+/// Lanczos equation is evaluated, whatever computed the jets (dual-number evaluation of the sides in
+/// [`Junction::stress_with_jets`], compiled tapes in the maps' batched path).
+///
+/// Formula (module docs; Poisson 2004 ch. 3 for A = B, D = 4; generalised to A != B and D dimensions):
+/// S^s_s = eps (D-2) [K^theta_theta] / (8 pi), S^theta_theta = (eps / 8 pi) ([K^s_s] + (D-3) [K^theta_theta]).
+#[inline]
+pub fn stress_of<T: Scalar>(
+    shape: &Shape,
+    jets: [&Jet<T>; 2],
+    r: T,
+    rdot: T,
+    rddot: T,
+) -> std::result::Result<Stress<T>, NoState> {
+    for (which, jet) in [Which::Minus, Which::Plus].into_iter().zip(jets) {
+        let w2 = rdot * rdot + jet.b[0] * shape.eps;
+        if w2.re() <= 0.0 {
+            return Err(NoState { side: which, w2: w2.re() });
+        }
+    }
+    Ok(stress_unchecked(shape, jets, r, rdot, rddot))
+}
+
+/// [`stress_of`] without its check (NaN where W^2 <= 0): branch-free, so that a loop over many radii can run
+/// several at once.
+#[inline(always)]
+pub fn stress_unchecked<T: Scalar>(shape: &Shape, jets: [&Jet<T>; 2], r: T, rdot: T, rddot: T) -> Stress<T> {
+    let mut k_ss = [T::zero(); 2];
+    let mut k_thth = [T::zero(); 2];
+    let mut n_r = [T::zero(); 2];
+    for (i, jet) in jets.into_iter().enumerate() {
+        let [av, ap, ..] = jet.a;
+        let [bv, bp, ..] = jet.b;
+        let w = (rdot * rdot + bv * shape.eps).sqrt();
+        let phi_p = ap / (av * 2.0) - bp / (bv * 2.0);
+        let x = w * shape.nu[i];
+        n_r[i] = x;
+        k_thth[i] = x / r;
+        k_ss[i] = (rddot + bp * (0.5 * shape.eps)) / w * shape.nu[i] + x * phi_p;
+    }
+    let pi8 = 8.0 * std::f64::consts::PI;
+    let jump_th = k_thth[1] - k_thth[0];
+    let jump_ss = k_ss[1] - k_ss[0];
+    let s_ss = jump_th * (shape.eps * shape.n_ang / pi8);
+    let s_thth = (jump_ss + jump_th * (shape.n_ang - 1.0)) * (shape.eps / pi8);
+    Stress { k_ss, k_thth, s_ss, s_thth, n_r }
+}
+
 impl<'a, T: Scalar> Junction<'a, T> {
     /// Extrinsic curvature and surface stress at a shell state (R, Rdot, Rddot), derivatives with respect to the
-    /// shell's own proper time (timelike) or proper length (spacelike).
-    ///
-    /// Formula (module docs; Poisson 2004 ch. 3 for A = B, D = 4; generalised to A != B and D dimensions):
-    /// S^s_s = eps (D-2) [K^theta_theta] / (8 pi), S^theta_theta = (eps / 8 pi) ([K^s_s] + (D-3) [K^theta_theta]).
+    /// shell's own proper time (timelike) or proper length (spacelike): [`stress_of`] with this junction's shape.
     /// Returns an error where W_i^2 = Rdot^2 + eps B_i <= 0 (no such shell state exists on that side).
     pub fn stress_with_jets(&self, jm: &Jet<T>, jp: &Jet<T>, r: T, rdot: T, rddot: T) -> Result<Stress<T>> {
-        let mut k_ss = [T::zero(); 2];
-        let mut k_thth = [T::zero(); 2];
-        let mut n_r = [T::zero(); 2];
-        for (i, (which, jet, nu)) in
-            [(Which::Minus, jm, self.nu_minus), (Which::Plus, jp, self.nu_plus)].into_iter().enumerate()
-        {
-            let [av, ap, ..] = jet.a;
-            let [bv, bp, ..] = jet.b;
-            let w2 = rdot * rdot + bv * self.eps;
-            if w2.re() <= 0.0 {
-                let what = match self.kind {
-                    ShellKind::Timelike => "Rdot^2 + B",
-                    ShellKind::Spacelike => "(dR/dl)^2 - B",
-                };
-                return Err(Error::numerical(format!(
-                    "on the {which} side {what} = {:.6e} <= 0 at R = {}: the shell cannot have this state there",
-                    w2.re(),
-                    r.re()
-                ))
-                .with_hint("a timelike shell inside a T-region must move fast enough (|Rdot|^2 > |B|); check the radius and the shell kind"));
-            }
-            let w = w2.sqrt();
-            let phi_p = ap / (av * 2.0) - bp / (bv * 2.0);
-            let x = w * nu;
-            n_r[i] = x;
-            k_thth[i] = x / r;
-            k_ss[i] = (rddot + bp * (0.5 * self.eps)) / w * nu + x * phi_p;
-        }
-        let pi8 = 8.0 * std::f64::consts::PI;
-        let jump_th = k_thth[1] - k_thth[0];
-        let jump_ss = k_ss[1] - k_ss[0];
-        let s_ss = jump_th * (self.eps * self.n_ang() / pi8);
-        let s_thth = (jump_ss + jump_th * (self.n_ang() - 1.0)) * (self.eps / pi8);
-        Ok(Stress { k_ss, k_thth, s_ss, s_thth, n_r })
+        stress_of(&self.shape, [jm, jp], r, rdot, rddot).map_err(|NoState { side, w2 }| {
+            let what = match self.kind {
+                ShellKind::Timelike => "Rdot^2 + B",
+                ShellKind::Spacelike => "(dR/dl)^2 - B",
+            };
+            Error::numerical(format!(
+                "on the {side} side {what} = {w2:.6e} <= 0 at R = {}: the shell cannot have this state there",
+                r.re()
+            ))
+            .with_hint("a timelike shell inside a T-region must move fast enough (|Rdot|^2 > |B|); check the radius and the shell kind")
+        })
     }
 
     /// Stress at a general state, evaluating A and B at R.

@@ -22,12 +22,13 @@ pub mod closed;
 pub mod conditions;
 pub mod formula;
 pub mod lanczos;
+pub mod point;
 pub mod potential;
 pub mod stability;
 
 use crate::error::{Error, Result};
 use crate::expr::Scalar;
-use crate::model::{EquationOfState, MetricSide, Model};
+use crate::model::{EquationOfState, MetricSide, Model, Shape};
 use crate::scenario::{Keep, Scenario, ShellKind, Which};
 use num_dual::Dual3;
 
@@ -53,9 +54,6 @@ pub fn phi_prime(jet: &Jet<f64>) -> f64 {
     jet.a[1] / (2.0 * jet.a[0]) - jet.b[1] / (2.0 * jet.b[0])
 }
 
-/// Relative size of |B| below which a radius counts as numerically at a horizon.
-pub const HORIZON_TOL: f64 = 1e-9;
-
 /// A shell between two sides, bound to parameter values of number type `T`.
 #[derive(Debug, Clone)]
 pub struct Junction<'a, T: Scalar = f64> {
@@ -73,6 +71,8 @@ pub struct Junction<'a, T: Scalar = f64> {
     pub keep_minus: Keep,
     /// Which part the plus side keeps.
     pub keep_plus: Keep,
+    /// The geometry the formulas read (kind, eps, D - 2, normal signs, kept parts; `Model::shape`).
+    pub shape: Shape,
     /// The model: both sides' metric functions and the equation of state.
     pub model: &'a Model,
     /// Parameter values, in the model's order.
@@ -108,6 +108,7 @@ impl<'a, T: Scalar> Junction<'a, T> {
             nu_plus: model.plus.normal_sign,
             keep_minus: model.minus.keep,
             keep_plus: model.plus.keep,
+            shape: model.shape(),
             model,
             params,
         }

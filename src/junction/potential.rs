@@ -19,7 +19,8 @@
 
 use super::{Junction, StaticValues};
 use crate::expr::Scalar;
-use num_dual::Dual2;
+use crate::model::Shape;
+use num_dual::{Dual2, DualNum};
 
 /// The equation of state used along the motion.
 #[derive(Debug, Clone, Copy)]
@@ -71,47 +72,128 @@ impl<'a, T: Scalar> Junction<'a, T> {
     }
 
     /// [V(a), V'(a), V''(a)] at a static radius of a timelike shell, following sigma(R) along the motion with
-    /// the given law. V(a) and V'(a) vanish at a static solution (V'(a) only if the law holds there); V''(a)
-    /// decides linear stability (Poisson & Visser 1995; Garcia, Lobo & Visser 2012).
-    ///
-    /// Method: Taylor-mode automatic differentiation. Y(R) is expanded to second order about a by Picard
-    /// iteration of the ODE of the module docs in second-order dual numbers (each iteration fixes one more
-    /// order, three are done), then V is evaluated on the expansion.
+    /// the given law ([`expand`] with the law's p(sigma)). V(a) and V'(a) vanish at a static solution (V'(a) only
+    /// if the law holds there); V''(a) decides linear stability (Poisson & Visser 1995; Garcia, Lobo & Visser 2012).
     pub fn potential_taylor(&self, sv: &StaticValues<T>, law: Law<T>) -> Option<[T; 3]> {
+        match law {
+            Law::Linear { beta2 } => expand_linear(&self.shape, sv, beta2),
+            Law::Scenario => expand(&self.shape, sv, |sigma| self.eos_at(sigma, lift)),
+        }
+    }
+}
+
+/// A number as a second-order dual number with zero derivatives.
+#[inline]
+fn lift<T: Scalar>(t: T) -> Dual2<T, f64> {
+    Dual2::new(t, T::zero(), T::zero())
+}
+
+/// [`expand`] with the linearised law p = p0 + beta^2 (sigma - sigma0) of Poisson & Visser 1995.
+#[inline]
+pub fn expand_linear<T: Scalar>(shape: &Shape, sv: &StaticValues<T>, beta2: T) -> Option<[T; 3]> {
+    let (sigma0, p0) = (sv.stress.sigma(), sv.stress.pressure());
+    expand(shape, sv, |sigma| Some(lift(p0) + (sigma - lift(sigma0)) * lift(beta2)))
+}
+
+/// The parts of the ODE for Y(R) (module docs) that do not depend on the law, expanded about a static radius.
+struct Expansion<T: Scalar> {
+    /// 1/R with R = a + h.
+    r_inv: Dual2<T, f64>,
+    /// B on [minus, plus] and B_plus - B_minus.
+    b: [Dual2<T, f64>; 2],
+    db: Dual2<T, f64>,
+    /// Phi' on [minus, plus].
+    phi: [Dual2<T, f64>; 2],
+    /// Y(a) = R [K^theta_theta] at the static radius.
+    y0: T,
+    eps: f64,
+    n_ang: f64,
+}
+
+impl<T: Scalar> Expansion<T> {
+    #[inline(always)]
+    fn new(shape: &Shape, sv: &StaticValues<T>) -> Expansion<T> {
         let d2 = |j: &[T; 4], k: usize| Dual2::new(j[k], j[k + 1], j[k + 2]);
         let [jm, jp] = &sv.jets;
-        let bm = d2(&jm.b, 0);
-        let bp = d2(&jp.b, 0);
+        let b = [d2(&jm.b, 0), d2(&jp.b, 0)];
         let phi = |j: &super::Jet<T>| d2(&j.a, 1) / (d2(&j.a, 0) * 2.0) - d2(&j.b, 1) / (d2(&j.b, 0) * 2.0);
-        let (phi_m, phi_p) = (phi(jm), phi(jp));
-        let r = Dual2::new(sv.a, T::one(), T::zero());
-        let y0 = sv.stress.n_r[1] - sv.stress.n_r[0];
-        let sigma0 = sv.stress.sigma();
-        let p0 = sv.stress.pressure();
-        let lift = |t: T| Dual2::new(t, T::zero(), T::zero());
-        let n_ang = self.n_ang();
-        let pi8 = 8.0 * std::f64::consts::PI;
-        let eps = self.eps;
-        let db = bp - bm;
-        let rhs = |y: Dual2<T, f64>| -> Option<Dual2<T, f64>> {
-            let sigma = -(y * n_ang) / (r * pi8);
-            let p = match law {
-                Law::Linear { beta2 } => lift(p0) + (sigma - lift(sigma0)) * lift(beta2),
-                Law::Scenario => self.eos_at(sigma, lift)?,
-            };
-            let xp = (y + db * eps / y) * 0.5;
-            let xm = (db * eps / y - y) * 0.5;
-            let flux = xp * phi_p - xm * phi_m;
-            Some(p * pi8 - flux - y * (n_ang - 1.0) / r)
-        };
-        let mut y = lift(y0);
-        for _ in 0..3 {
-            let g = rhs(y)?;
-            y = Dual2::new(y0, g.re, g.v1);
+        Expansion {
+            r_inv: Dual2::new(sv.a, T::one(), T::zero()).recip(),
+            b,
+            db: b[1] - b[0],
+            phi: [phi(jm), phi(jp)],
+            y0: sv.stress.n_r[1] - sv.stress.n_r[0],
+            eps: shape.eps,
+            n_ang: shape.n_ang,
         }
-        let v = potential_from_y(eps, bm, bp, y);
-        Some([v.re, v.v1, v.v2])
     }
+
+    /// sigma(R) from Y, and the right-hand side G(R, Y) without its 8 pi p term.
+    #[inline(always)]
+    fn parts(&self, y: Dual2<T, f64>) -> (Dual2<T, f64>, Dual2<T, f64>) {
+        let pi8 = 8.0 * std::f64::consts::PI;
+        let y_r = y * self.r_inv;
+        let sigma = y_r * (-self.n_ang / pi8);
+        let ratio = self.db * self.eps * y.recip();
+        let xp = (y + ratio) * 0.5;
+        let xm = (ratio - y) * 0.5;
+        let flux = xp * self.phi[1] - xm * self.phi[0];
+        (sigma, -flux - y_r * (self.n_ang - 1.0))
+    }
+
+    /// Y to second order from G at the previous order: Y(a) = y0, Y'(a) = G, Y''(a) = dG/dR.
+    #[inline(always)]
+    fn next(&self, g: Dual2<T, f64>) -> Dual2<T, f64> {
+        Dual2::new(self.y0, g.re, g.v1)
+    }
+
+    /// [V, V', V''] on an expansion of Y.
+    #[inline(always)]
+    fn potential(&self, y: Dual2<T, f64>) -> [T; 3] {
+        let v = potential_from_y(self.eps, self.b[0], self.b[1], y);
+        [v.re, v.v1, v.v2]
+    }
+}
+
+/// [V(a), V'(a), V''(a)] at a static radius of a timelike shell from the static values `sv` (the jets of both
+/// sides and the stress there) and the law p(sigma) along the motion (`pressure`, `None` where it is undefined):
+/// the one expansion of the potential, whatever computed the jets.
+///
+/// Method: Taylor-mode automatic differentiation. Y(R) is expanded to second order about a by Picard
+/// iteration of the ODE of the module docs in second-order dual numbers: Y(a) = y0 is known, the first
+/// iteration fixes Y'(a) = G(a, y0), the second Y''(a) = dG/dR (the first-order part of G needs only the
+/// first-order part of Y); then V is evaluated on the expansion. Of the jets only A, B and their first two
+/// derivatives matter: the third derivatives enter only second-order parts of G, which are discarded.
+pub fn expand<T: Scalar, P>(shape: &Shape, sv: &StaticValues<T>, pressure: P) -> Option<[T; 3]>
+where
+    P: Fn(Dual2<T, f64>) -> Option<Dual2<T, f64>>,
+{
+    let e = Expansion::new(shape, sv);
+    let pi8 = 8.0 * std::f64::consts::PI;
+    let mut y = lift(e.y0);
+    for _ in 0..2 {
+        let (sigma, rest) = e.parts(y);
+        y = e.next(pressure(sigma)? * pi8 + rest);
+    }
+    Some(e.potential(y))
+}
+
+/// V''(a0) = c0 + c1 beta^2 with the linearised law (Poisson & Visser 1995), from one expansion: beta^2 enters
+/// only through 8 pi beta^2 sigma'(a0) in Y''(a0) (at R = a0, p = p0 whatever beta^2), so the law-free parts are
+/// computed once and V'' is evaluated at beta^2 = 0 and 1 (the coefficients may be non-finite where a formula
+/// divides by zero, e.g. Y(a) = 0; callers check).
+#[inline(always)]
+pub fn v2_linear_coefficients<T: Scalar>(shape: &Shape, sv: &StaticValues<T>) -> (T, T) {
+    let e = Expansion::new(shape, sv);
+    let pi8 = 8.0 * std::f64::consts::PI;
+    let p0 = lift(sv.stress.pressure() * pi8);
+    let (_, rest) = e.parts(lift(e.y0));
+    let (sigma, rest) = e.parts(e.next(rest + p0));
+    let g = rest + p0;
+    // beta^2 = 0, and beta^2 = 1: Y''(a0) gains 8 pi sigma'(a0).
+    let c0 = e.potential(e.next(g))[2];
+    let c1 = e.potential(Dual2::new(e.y0, g.re, g.v1 + sigma.v1 * pi8))[2] - c0;
+    (c0, c1)
 }
 
 impl<'a> Junction<'a, f64> {

@@ -48,7 +48,34 @@ pub struct Model {
     pub names: Vec<String>,
 }
 
+/// The part of a junction's geometry that depends on neither the radius nor the parameters: what the formulas
+/// of `junction` need besides the two sides' A and B (so that they can run on jets from any evaluator).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Shape {
+    /// Timelike or spacelike shell.
+    pub kind: ShellKind,
+    /// eps = n.n (+1 timelike, -1 spacelike).
+    pub eps: f64,
+    /// D - 2, the number of angular directions on the shell.
+    pub n_ang: f64,
+    /// The signs of n^r on [minus, plus].
+    pub nu: [f64; 2],
+    /// What [minus, plus] keep.
+    pub keep: [Keep; 2],
+}
+
 impl Model {
+    /// The geometry of the junction (kind, eps, D - 2, normal signs, kept parts).
+    pub fn shape(&self) -> Shape {
+        Shape {
+            kind: self.kind,
+            eps: self.kind.eps(),
+            n_ang: f64::from(self.dimension - 2),
+            nu: [self.minus.normal_sign, self.plus.normal_sign],
+            keep: [self.minus.keep, self.plus.keep],
+        }
+    }
+
     /// The side `which`.
     pub fn side(&self, which: Which) -> &SideModel {
         match which {

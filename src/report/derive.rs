@@ -9,9 +9,6 @@ use crate::junction::{EnergyConditions, Junction, StableWhen};
 use crate::scenario::{Scenario, ShellKind};
 use serde::Serialize;
 
-/// Relative |B| below which results are flagged as near a horizon (ill-conditioned), though still computed.
-pub const NEAR_HORIZON_WARN: f64 = 1e-6;
-
 /// The shell state asked for.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct State {
@@ -173,11 +170,13 @@ pub fn derive(s: &Scenario, state: State) -> Result<DeriveReport> {
         j.check_finite_jet(crate::scenario::Which::Plus, r, &jp, 1)?;
         (j.stress_with_jets(&jm, &jp, r, state.velocity, state.acceleration)?, [jm, jp])
     };
+    // Results near a horizon are still computed, and flagged as ill-conditioned.
+    let near = crate::tolerances::TOL.horizon.near_warning;
     for (i, name) in [(0, "minus"), (1, "plus")] {
         let b = jets[i].b[0];
-        if crate::junction::admissible::near_horizon(r, b, jets[i].b[1], NEAR_HORIZON_WARN) {
+        if crate::junction::admissible::near_horizon(r, b, jets[i].b[1], near) {
             warnings.push(format!(
-                "the radius is within a relative {NEAR_HORIZON_WARN:.0e} of a horizon of the {name} side (B = {b:.3e}): the junction quantities grow like 1/sqrt(B) and are ill-conditioned here"
+                "the radius is within a relative {near:.0e} of a horizon of the {name} side (B = {b:.3e}): the junction quantities grow like 1/sqrt(B) and are ill-conditioned here"
             ));
         }
     }
@@ -252,7 +251,7 @@ pub fn derive(s: &Scenario, state: State) -> Result<DeriveReport> {
             }
             if state.is_static() {
                 let sv = j.static_values(r)?;
-                let ls = j.linear_stability(&sv)?;
+                let ls = j.linear_stability(&sv);
                 rep.beta2_critical = Some(ls.beta2_critical);
                 rep.stable_when = Some(ls.stable_when);
                 rep.v2_at_beta2_zero = Some(ls.v2_at_beta2_zero);

@@ -4,10 +4,11 @@ pub use super::class::CellClass;
 use super::fast::{static_coefficients, FastJunction, LineScratch, StaticCoefficients};
 use super::grid::{AxisKind, Beta2Source, MapSpec};
 use crate::error::Result;
-use crate::junction::{admissible, EnergyConditions, Junction};
+use crate::junction::{EnergyConditions, Junction};
 use crate::scenario::{Scenario, Which};
 use crate::statics::continuation::continue_search;
 use crate::statics::{search, Stability, StaticSearch, StaticsOptions};
+use crate::tolerances::TOL;
 use serde::Serialize;
 
 /// One evaluated cell. Numbers that do not exist for the class are NaN (written as empty fields with the
@@ -137,23 +138,12 @@ pub fn energy_bits(ec: EnergyConditions) -> u8 {
     u8::from(ec.null) | u8::from(ec.weak) << 1 | u8::from(ec.strong) << 2 | u8::from(ec.dominant) << 3
 }
 
-/// Relative |V''| below which a cell is marginal: the documented marginal rule, 1e-8
-/// (`junction::stability::MARGINAL_TOL`).
-pub const MARGINAL_TOL: f64 = crate::junction::stability::MARGINAL_TOL;
-
 /// Static values at one radius with one parameter set: (sigma0, p0, c0, c1), or the class that says why not.
+/// The generic evaluator: third-order dual-number jets of the sides, then the same
+/// [`crate::junction::point::static_coefficients`] as the batched path.
 pub(crate) fn static_point(j: &Junction<f64>, a: f64) -> std::result::Result<(f64, f64, f64, f64), CellClass> {
-    let jm = j.jet(Which::Minus, a);
-    let jp = j.jet(Which::Plus, a);
-    admissible::static_site(j.kind, [j.keep_minus, j.keep_plus], a, [&jm, &jp]).map_err(CellClass::refused)?;
-    let stress = j.stress_with_jets(&jm, &jp, a, 0.0, 0.0).map_err(|_| CellClass::NoStatic)?;
-    let sv = crate::junction::StaticValues { a, stress, jets: [jm, jp] };
-    let (c0, c1) = j.v2_coefficients(&sv).map_err(|_| CellClass::NoStatic)?;
-    let (sigma, p) = (stress.sigma(), stress.pressure());
-    if !(sigma.is_finite() && p.is_finite() && c0.is_finite() && c1.is_finite()) {
-        return Err(CellClass::NoStatic);
-    }
-    Ok((sigma, p, c0, c1))
+    let jets = [j.jet(Which::Minus, a), j.jet(Which::Plus, a)];
+    static_coefficients(&j.shape, a, &jets).map(|c| (c.sigma, c.pressure, c.c0, c.c1))
 }
 
 /// Classify V'' = c0 + c1 beta^2 at a static radius a0 with the one marginal rule of statics
@@ -162,7 +152,7 @@ pub(crate) fn static_point(j: &Junction<f64>, a: f64) -> std::result::Result<(f6
 pub fn classify_v2(c0: f64, c1: f64, beta2: f64, a0: f64) -> (f64, CellClass) {
     let v2 = c0 + c1 * beta2;
     let scale = crate::junction::stability::marginal_scale_of(c0, c1 * beta2, a0);
-    let class = if v2.abs() <= MARGINAL_TOL * scale {
+    let class = if v2.abs() <= TOL.stability.marginal * scale {
         CellClass::Marginal
     } else if v2 > 0.0 {
         CellClass::Stable
@@ -391,8 +381,7 @@ impl<'a> Evaluator<'a> {
     ) -> Cell {
         let (sigma, p, c0, c1) = v;
         let (v2, class) = classify_v2(c0, c1, beta2, radius);
-        let crit =
-            if c1.abs() > crate::junction::stability::SLOPE_TOL * c0.abs().max(c1.abs()) { -c0 / c1 } else { f64::NAN };
+        let crit = if c1.abs() > TOL.stability.beta2_slope * c0.abs().max(c1.abs()) { -c0 / c1 } else { f64::NAN };
         Cell {
             ix: ix as u32,
             iy: iy as u32,

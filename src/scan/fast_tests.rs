@@ -1,6 +1,8 @@
-//! The fast f64 path against the generic reference path (`Junction::v2_coefficients`, itself checked against
-//! the SymPy derivation in tests/reference/ and against Poisson & Visser 1995): they must agree to a relative
-//! 1e-9 on every shipped timelike scenario and on random points, so the two can never drift apart.
+//! The batched path (jets of compiled tapes, per point and over a line) against the generic reference path
+//! (dual-number evaluation of the sides, `scan::cell::static_point`): both feed the one computation
+//! `junction::point::static_coefficients` (itself checked against the SymPy derivation in tests/reference/ and
+//! against Poisson & Visser 1995), so they must agree to a relative 1e-9 on every shipped timelike scenario and
+//! on random points, and give the same class everywhere.
 
 use super::*;
 use crate::junction::Junction;

@@ -130,7 +130,7 @@ fn samples_with_gaps(lo: f64, hi: f64, predicted: &[f64]) -> Vec<f64> {
 /// `None` if the function is undefined at a sample or vanishes exactly at one. Newton starts from the predicted
 /// roots (`predicted.0`, the neighbour's, in order) that fall in a bracket, else from its midpoint. A bracket
 /// that holds a predicted pole (`predicted.1`) and no predicted root is bisected on `value` alone to a relative
-/// width of [`POLE_WIDTH`]: a pole only bounds the search, and Newton steps are of no use next to one.
+/// width of `Tolerances::statics.pole_width`: a pole only bounds the search, and Newton steps are of no use next to one.
 fn sign_changes<V, F>(
     value: &V,
     f: &F,
@@ -175,15 +175,12 @@ where
     Some((roots, poles))
 }
 
-/// Relative width to which a predicted pole is bracketed.
-pub const POLE_WIDTH: f64 = 1e-7;
-
-/// Bisection of a sign change of `value` on [a, b] to a relative width of [`POLE_WIDTH`]: the midpoint and the
-/// value there.
+/// Bisection of a sign change of `value` on [a, b] to a relative width of `Tolerances::statics.pole_width`:
+/// the midpoint and the value there.
 fn bisect<V: Fn(f64) -> Option<f64>>(value: &V, (mut a, fa): (f64, f64), (mut b, _): (f64, f64)) -> Option<(f64, f64)> {
     let mut m = 0.5 * (a + b);
     let mut vm = value(m)?;
-    while (b - a).abs() > POLE_WIDTH * m.abs() {
+    while (b - a).abs() > crate::tolerances::TOL.statics.pole_width * m.abs() {
         if vm.signum() == fa.signum() {
             a = m;
         } else {

@@ -17,10 +17,11 @@ use crate::metric::{horizons, SideFns};
 use crate::model::{MetricSide, Model};
 use crate::roots::{find_roots, RootKind, RootOptions};
 use crate::scenario::{Scenario, ShellKind, Which};
+use crate::tolerances::TOL;
 use num_dual::{Dual2, Dual64};
 use serde::Serialize;
 
-/// Tolerances for static-radius work, in one place.
+/// Tolerances for static-radius work; the defaults are the named fields of [`crate::tolerances::Tolerances`].
 #[derive(Debug, Clone, Copy)]
 pub struct StaticsOptions {
     /// Root finding.
@@ -42,10 +43,10 @@ impl Default for StaticsOptions {
     fn default() -> Self {
         StaticsOptions {
             roots: RootOptions { samples: 3000, ..Default::default() },
-            marginal_tol: 1e-8,
-            near_horizon: 1e-6,
-            horizon_margin: 1e-10,
-            identically_static_tol: 1e-10,
+            marginal_tol: TOL.stability.marginal,
+            near_horizon: TOL.horizon.near_warning,
+            horizon_margin: TOL.statics.horizon_margin,
+            identically_static_tol: TOL.statics.identically_static,
             identically_static_run: 8,
         }
     }
@@ -328,7 +329,7 @@ pub fn admissible_at(m: &Model, params: &[f64], r: f64) -> std::result::Result<(
 /// Classify one static radius with the model's law.
 pub fn classify(j: &Junction<f64>, a: f64, double_root: bool, opts: &StaticsOptions) -> Option<StaticRadius> {
     let (f, sv) = residual(j, a)?;
-    let ls = j.linear_stability(&sv).ok()?;
+    let ls = j.linear_stability(&sv);
     let sigma = sv.stress.sigma();
     let (_, beta) = j.law_and_slope(sigma)?;
     let v = j.potential_taylor(&sv, Law::Scenario)?;

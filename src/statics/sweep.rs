@@ -320,7 +320,7 @@ pub fn sweep_with_progress(
             .filter_map(|(vi, a)| {
                 let j = Junction::with_params(&s.model, s.params.values_with(name, values[vi]).ok()?);
                 let (_, sv) = super::residual(&j, a)?;
-                let ls = j.linear_stability(&sv).ok()?;
+                let ls = j.linear_stability(&sv);
                 let v2 = j.potential_taylor(&sv, Law::Scenario)?[2];
                 // The one marginal rule (`stability::marginal_scale`), with the slope at its full size.
                 let scale = crate::junction::stability::marginal_scale(&ls, 1.0, a);

@@ -83,7 +83,7 @@ fn solution(s: &Scenario, k: usize, a: f64, lam: f64, opts: &StaticsOptions) -> 
     let (f, g) = eval(s, k, a, lam, true)?;
     let j = Junction::with_params(&s.model, s.params.values_with(&s.params.names()[k], lam).ok()?);
     let (_, sv) = residual(&j, a)?;
-    let ls = j.linear_stability(&sv).ok()?;
+    let ls = j.linear_stability(&sv);
     // The one marginal rule (`stability::marginal_scale`), with the slope at its full size.
     let scale = crate::junction::stability::marginal_scale(&ls, 1.0, a);
     Some(TuneSolution {

@@ -1,7 +1,9 @@
 //! Map axes and the map specification, validated against a scenario.
 
-use crate::error::{Error, Result};
+use crate::error::{Error, ErrorKind, Result};
+use crate::phrase;
 use crate::scenario::Scenario;
+use crate::RequestField as F;
 use serde::{Deserialize, Serialize};
 
 /// What an axis varies.
@@ -181,36 +183,49 @@ impl MapSpec {
         }
         let has_radius = x.kind == AxisKind::Radius || y.kind == AxisKind::Radius;
         let has_beta = x.kind == AxisKind::Beta2 || y.kind == AxisKind::Beta2;
-        let source =
-            match (has_radius, has_beta, beta2, s.shell.eos.is_some()) {
-                (_, true, Some(_), _) => {
-                    return Err(Error::input("--beta2 given while beta2 is an axis").with_hint("drop --beta2"))
-                }
-                (true, true, None, _) => Beta2Source::Axis,
-                (true, false, Some(b), _) => Beta2Source::Fixed(b),
-                (true, false, None, true) => Beta2Source::Law,
-                (true, false, None, false) => return Err(Error::input(
-                    "the map needs beta^2: make 'beta2' an axis, give --beta2 VALUE, or add [shell] pressure = \"...\"",
+        let source = match (has_radius, has_beta, beta2, s.shell.eos.is_some()) {
+            (_, true, Some(_), _) => {
+                return Err(Error::phrased(ErrorKind::Input, phrase![F::Beta2, " given while beta2 is an axis"])
+                    .with_hint_phrase(phrase!["drop ", F::Beta2]))
+            }
+            (true, true, None, _) => Beta2Source::Axis,
+            (true, false, Some(b), _) => Beta2Source::Fixed(b),
+            (true, false, None, true) => Beta2Source::Law,
+            (true, false, None, false) => {
+                return Err(Error::phrased(
+                    ErrorKind::Input,
+                    phrase![
+                        "the map needs beta^2: make 'beta2' an axis, give ",
+                        F::Beta2,
+                        " VALUE, or add [shell] pressure = \"...\""
+                    ],
                 )
-                .with_hint("e.g. --y beta2:-3:3:200")),
-                (false, true, _, _) => {
-                    return Err(Error::input(
-                        "a beta2 axis needs a radius axis (beta^2 is a property of a static shell at a given radius)",
-                    )
-                    .with_hint("e.g. --x radius:2.1:10:300 --y beta2:-3:3:200"))
-                }
-                (false, false, _, false) => {
-                    return Err(Error::input(
-                        "a map over two parameters needs an equation of state to decide the static radii",
-                    )
-                    .with_hint("add [shell] pressure = \"...\" or make one axis 'radius'"))
-                }
-                (false, false, _, true) => Beta2Source::StaticRadii,
-            };
+                .with_hint_phrase(phrase!["e.g. ", F::Y, " beta2:-3:3:200"]))
+            }
+            (false, true, _, _) => {
+                return Err(Error::input(
+                    "a beta2 axis needs a radius axis (beta^2 is a property of a static shell at a given radius)",
+                )
+                .with_hint_phrase(phrase![
+                    "e.g. ",
+                    F::X,
+                    " radius:2.1:10:300 ",
+                    F::Y,
+                    " beta2:-3:3:200"
+                ]))
+            }
+            (false, false, _, false) => {
+                return Err(Error::input(
+                    "a map over two parameters needs an equation of state to decide the static radii",
+                )
+                .with_hint("add [shell] pressure = \"...\" or make one axis 'radius'"))
+            }
+            (false, false, _, true) => Beta2Source::StaticRadii,
+        };
         let cells = (x.n as u128) * (y.n as u128);
         if cells > 1u128 << 40 {
             return Err(Error::input(format!("{} x {} = {cells} cells is beyond what one run can address", x.n, y.n))
-                .with_hint("split the map with --shard K/N"));
+                .with_hint_phrase(phrase!["split the map with ", F::Shard, " K/N"]));
         }
         Ok(MapSpec { x, y, beta2: source, radius_range, root_rule: RootRule::AnyStable })
     }

@@ -98,7 +98,7 @@ pub fn stress_unchecked<T: Scalar>(shape: &Shape, jets: [&Jet<T>; 2], r: T, rdot
         let [av, ap, ..] = jet.a;
         let [bv, bp, ..] = jet.b;
         let w = (rdot * rdot + bv * shape.eps).sqrt();
-        let phi_p = ap / (av * 2.0) - bp / (bv * 2.0);
+        let phi_p = super::redshift_gradient(av, ap, bv, bp);
         let x = w * shape.nu[i];
         n_r[i] = x;
         k_thth[i] = x / r;

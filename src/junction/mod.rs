@@ -51,7 +51,14 @@ pub fn phi_prime(jet: &Jet<f64>) -> f64 {
     if jet.a[0] == jet.b[0] && jet.a[1] == jet.b[1] {
         return 0.0;
     }
-    jet.a[1] / (2.0 * jet.a[0]) - jet.b[1] / (2.0 * jet.b[0])
+    redshift_gradient(jet.a[0], jet.a[1], jet.b[0], jet.b[1])
+}
+
+/// Phi' = A'/(2A) - B'/(2B) from A, A', B and B' of any number type (a dual number carries its radial
+/// derivatives): the one place the formula is written.
+#[inline(always)]
+pub fn redshift_gradient<U: Scalar>(a: U, a1: U, b: U, b1: U) -> U {
+    a1 / (a * 2.0) - b1 / (b * 2.0)
 }
 
 /// A shell between two sides, bound to parameter values of number type `T`.

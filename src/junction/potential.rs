@@ -66,7 +66,7 @@ impl<'a, T: Scalar> Junction<'a, T> {
     fn flux_sum(&self, sv: &StaticValues<T>) -> T {
         let phi = |i: usize| {
             let j = &sv.jets[i];
-            j.a[1] / (j.a[0] * 2.0) - j.b[1] / (j.b[0] * 2.0)
+            super::redshift_gradient(j.a[0], j.a[1], j.b[0], j.b[1])
         };
         sv.stress.n_r[1] * phi(1) - sv.stress.n_r[0] * phi(0)
     }
@@ -116,7 +116,7 @@ impl<T: Scalar> Expansion<T> {
         let d2 = |j: &[T; 4], k: usize| Dual2::new(j[k], j[k + 1], j[k + 2]);
         let [jm, jp] = &sv.jets;
         let b = [d2(&jm.b, 0), d2(&jp.b, 0)];
-        let phi = |j: &super::Jet<T>| d2(&j.a, 1) / (d2(&j.a, 0) * 2.0) - d2(&j.b, 1) / (d2(&j.b, 0) * 2.0);
+        let phi = |j: &super::Jet<T>| super::redshift_gradient(d2(&j.a, 0), d2(&j.a, 1), d2(&j.b, 0), d2(&j.b, 1));
         Expansion {
             r_inv: Dual2::new(sv.a, T::one(), T::zero()).recip(),
             b,

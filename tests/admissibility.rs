@@ -71,7 +71,7 @@ fn derive_statics_and_maps_agree_on_every_point() {
         let params = s.params.values();
         let scale = length_scale(&s);
         let j = Junction::new(&s);
-        let fj = FastJunction::new(&s);
+        let fj = FastJunction::new(&s.model).expect("expression sides compile");
         for _ in 0..300 {
             let r = rng.uniform(0.02, 12.0) * scale;
             let (jm, jp) = (j.jet(Which::Minus, r), j.jet(Which::Plus, r));

@@ -165,13 +165,13 @@ pub fn classify_v2(c0: f64, c1: f64, beta2: f64, a0: f64) -> (f64, CellClass) {
 /// Which computation evaluates cells with a radius axis.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Method {
-    /// Plain f64: compiled tapes (batched along radius lines) and the closed-form V'' coefficients
-    /// ([`super::fast`]); on maps over two parameters, static radii continued from the previous cell of the
-    /// line ([`crate::statics::continuation`]). The default.
+    /// Plain f64: compiled tapes (batched along radius lines) feeding the one static-shell computation
+    /// ([`super::fast`], [`crate::junction::point`]; a model whose sides are not expressions takes the generic
+    /// jets); on maps over two parameters, static radii continued from the previous cell of the line
+    /// ([`crate::statics::continuation`]). The default.
     Fast,
-    /// The generic reference: a `Junction` per cell, dual-number tree walks and the Picard expansion of the
-    /// potential ([`Junction::v2_coefficients`]); on maps over two parameters, the full static-radius search in
-    /// every cell.
+    /// The generic reference: a `Junction` per cell, jets from dual-number evaluation of the sides, then the same
+    /// computation; on maps over two parameters, the full static-radius search in every cell.
     Generic,
 }
 
@@ -180,7 +180,10 @@ pub struct Evaluator<'a> {
     s: &'a Scenario,
     spec: &'a MapSpec,
     statics: StaticsOptions,
+    /// The batched path's compiled functions (`Method::Fast` on a model given by expressions).
     fast: Option<FastJunction>,
+    /// Continue static radii from cell to cell on maps over two parameters (`Method::Fast`).
+    continued: bool,
     /// The grid values of the x and y axes, computed once (`grid_value` rounds each to its shortest decimal
     /// form, which costs far more than evaluating a cell on a beta^2 line).
     values: [Vec<f64>; 2],
@@ -198,10 +201,10 @@ impl<'a> Evaluator<'a> {
             roots: crate::roots::RootOptions { samples: 600, ..Default::default() },
             ..Default::default()
         };
-        let fast = (method == Method::Fast).then(|| FastJunction::new(s));
+        let fast = (method == Method::Fast).then(|| FastJunction::new(&s.model)).flatten();
         let values =
             [(0..spec.x.n).map(|i| spec.x.value(i)).collect(), (0..spec.y.n).map(|i| spec.y.value(i)).collect()];
-        Ok(Evaluator { s, spec, statics, fast, values })
+        Ok(Evaluator { s, spec, statics, fast, continued: method == Method::Fast, values })
     }
 
     /// Parameters and radius (NaN if no radius axis) for a point with axis values (x, y).
@@ -414,7 +417,7 @@ impl<'a> Evaluator<'a> {
     ) -> Cell {
         let (lo, hi) = self.spec.radius_range;
         let model = &self.s.model;
-        let continued = match (prev.as_ref(), self.fast.is_some()) {
+        let continued = match (prev.as_ref(), self.continued) {
             (Some(p), true) => continue_search(model, params, p, lo, hi, &self.statics),
             _ => None,
         };

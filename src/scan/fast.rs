@@ -11,8 +11,7 @@ use crate::expr::Tape;
 pub use crate::junction::point::StaticCoefficients;
 use crate::junction::point::{self, NoStaticValues};
 use crate::junction::Jet;
-use crate::model::Shape;
-use crate::scenario::Scenario;
+use crate::model::{EquationOfState, MetricSide, Model, Shape};
 use num_dual::{Dual2_64, Dual64};
 
 /// Static values at radius `a` from the jets of both sides ([`point::static_coefficients`]), or the class that
@@ -61,11 +60,19 @@ pub struct LineScratch {
 }
 
 impl FastJunction {
-    /// Compile the scenario's metric functions (and law, if any).
-    pub fn new(s: &Scenario) -> FastJunction {
+    /// Compile the model's metric functions (and law, if any); `None` when a side or the law is not given by
+    /// expressions (such a model takes the generic evaluator, which needs only the `MetricSide` and
+    /// `EquationOfState` traits).
+    pub fn new(model: &Model) -> Option<FastJunction> {
+        let (am, bm) = model.minus.metric.expressions()?;
+        let (ap, bp) = model.plus.metric.expressions()?;
+        let eos = match &model.law {
+            Some(law) => Some(law.expression()?.tape()),
+            None => None,
+        };
         let mut tapes: Vec<Tape> = Vec::new();
         let mut which = [0usize; 4];
-        for (k, e) in [&s.minus.a, &s.minus.b, &s.plus.a, &s.plus.b].into_iter().enumerate() {
+        for (k, e) in [am, bm, ap, bp].into_iter().enumerate() {
             let t = e.tape();
             which[k] = match tapes.iter().position(|u| *u == t) {
                 Some(i) => i,
@@ -75,7 +82,7 @@ impl FastJunction {
                 }
             };
         }
-        FastJunction { tapes, which, eos: s.shell.eos.as_ref().map(|e| e.tape()), shape: s.model.shape() }
+        Some(FastJunction { tapes, which, eos, shape: model.shape() })
     }
 
     /// Number of distinct metric functions evaluated per radius.

@@ -7,6 +7,7 @@
 use super::*;
 use crate::junction::Junction;
 use crate::scan::cell::static_point;
+use crate::scenario::Scenario;
 
 /// A small deterministic generator (xorshift64*), so failures reproduce.
 struct Rng(u64);
@@ -26,7 +27,7 @@ fn close(a: f64, b: f64, scale: f64) -> bool {
 
 /// Compare both paths at radius `a` with parameters `params`; returns true if a static shell exists there.
 fn agree(s: &Scenario, params: &[f64], a: f64, what: &str) -> bool {
-    let fj = FastJunction::new(s);
+    let fj = FastJunction::new(&s.model).expect("expression sides compile");
     let j = Junction::with_params(&s.model, params.to_vec());
     let generic = static_point(&j, a);
     let fast = static_coefficients(&fj.shape, a, &fj.point_jets(a, params));
@@ -132,9 +133,9 @@ fn identical_metric_functions_are_compiled_once() {
         None,
     )
     .unwrap();
-    assert_eq!(FastJunction::new(&s).distinct_functions(), 1);
+    assert_eq!(FastJunction::new(&s.model).unwrap().distinct_functions(), 1);
     let t = Scenario::parse(&GENERAL.replace("DIM", "4").replace("KEEP", "outer"), None).unwrap();
-    assert_eq!(FastJunction::new(&t).distinct_functions(), 4);
+    assert_eq!(FastJunction::new(&t.model).unwrap().distinct_functions(), 4);
 }
 
 /// Whole maps, every orientation and every beta^2 source: the fast evaluator gives the cells of the generic one.

@@ -5,6 +5,7 @@ use super::fast::{static_coefficients, FastJunction, LineScratch, StaticCoeffici
 use super::grid::{AxisKind, Beta2Source, MapSpec};
 use crate::error::Result;
 use crate::junction::{EnergyConditions, Junction};
+use crate::model::Model;
 use crate::scenario::{Scenario, Which};
 use crate::statics::continuation::continue_search;
 use crate::statics::{search, Stability, StaticSearch, StaticsOptions};
@@ -177,7 +178,10 @@ pub enum Method {
 
 /// Evaluates lines of a map.
 pub struct Evaluator<'a> {
-    s: &'a Scenario,
+    /// The physics of the junction.
+    model: &'a Model,
+    /// The scenario's parameter values (the axes replace some of them per cell).
+    base: &'a [f64],
     spec: &'a MapSpec,
     statics: StaticsOptions,
     /// The batched path's compiled functions (`Method::Fast` on a model given by expressions).
@@ -204,7 +208,15 @@ impl<'a> Evaluator<'a> {
         let fast = (method == Method::Fast).then(|| FastJunction::new(&s.model)).flatten();
         let values =
             [(0..spec.x.n).map(|i| spec.x.value(i)).collect(), (0..spec.y.n).map(|i| spec.y.value(i)).collect()];
-        Ok(Evaluator { s, spec, statics, fast, continued: method == Method::Fast, values })
+        Ok(Evaluator {
+            model: &s.model,
+            base: s.params.values(),
+            spec,
+            statics,
+            fast,
+            continued: method == Method::Fast,
+            values,
+        })
     }
 
     /// Parameters and radius (NaN if no radius axis) for a point with axis values (x, y).
@@ -248,7 +260,7 @@ impl<'a> Evaluator<'a> {
         let spec = self.spec;
         let mut params = std::mem::take(&mut scratch.params);
         params.clear();
-        params.extend_from_slice(self.s.params.values());
+        params.extend_from_slice(self.base);
         let n = spec.line_len();
         let xy = |j: usize| {
             let (ix, iy) = spec.cell_index(i, j);
@@ -263,9 +275,10 @@ impl<'a> Evaluator<'a> {
             let res = match &self.fast {
                 Some(f) => static_coefficients(&f.shape, radius, &f.point_jets(radius, &params))
                     .map(|c| (c.sigma, c.pressure, c.c0, c.c1)),
-                None => static_point(&Junction::with_params(&self.s.model, params.clone()), radius),
+                None => static_point(&Junction::with_params(self.model, params.clone()), radius),
             };
-            let bits = res.map(|(sigma, p, _, _)| energy_bits(EnergyConditions::evaluate(sigma, p, self.s.dimension)));
+            let bits =
+                res.map(|(sigma, p, _, _)| energy_bits(EnergyConditions::evaluate(sigma, p, self.model.dimension)));
             let (axis, other) = if spec.lines_are_columns() { (&self.values[1], x0) } else { (&self.values[0], y0) };
             for (jj, &beta2) in axis.iter().enumerate().take(n) {
                 let (ix, iy) = spec.cell_index(i, jj);
@@ -316,14 +329,14 @@ impl<'a> Evaluator<'a> {
                     emit(self.statics_cell(ix, iy, (x, y), &params, &mut prev));
                     continue;
                 }
-                let j = Junction::with_params(&self.s.model, params.clone());
+                let j = Junction::with_params(self.model, params.clone());
                 emit(match static_point(&j, radius) {
                     Ok((sigma, p, c0, c1)) => {
                         let beta2 = match spec.beta2 {
                             Beta2Source::Fixed(b) => b,
                             _ => j.law_and_slope(sigma).map_or(f64::NAN, |(_, b)| b),
                         };
-                        let bits = energy_bits(EnergyConditions::evaluate(sigma, p, self.s.dimension));
+                        let bits = energy_bits(EnergyConditions::evaluate(sigma, p, self.model.dimension));
                         if beta2.is_finite() {
                             self.radius_cell(ix, iy, x, y, radius, beta2, (sigma, p, c0, c1), bits)
                         } else {
@@ -358,7 +371,7 @@ impl<'a> Evaluator<'a> {
                     _ => f.law_slope(c.sigma, params),
                 };
                 if beta2.is_finite() {
-                    let bits = energy_bits(EnergyConditions::evaluate(c.sigma, c.pressure, self.s.dimension));
+                    let bits = energy_bits(EnergyConditions::evaluate(c.sigma, c.pressure, self.model.dimension));
                     self.radius_cell(ix, iy, x, y, radius, beta2, (c.sigma, c.pressure, c.c0, c.c1), bits)
                 } else {
                     Cell::empty(ix, iy, x, y, CellClass::NoStatic)
@@ -416,7 +429,7 @@ impl<'a> Evaluator<'a> {
         prev: &mut Option<StaticSearch>,
     ) -> Cell {
         let (lo, hi) = self.spec.radius_range;
-        let model = &self.s.model;
+        let model = self.model;
         let continued = match (prev.as_ref(), self.continued) {
             (Some(p), true) => continue_search(model, params, p, lo, hi, &self.statics),
             _ => None,

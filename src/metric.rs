@@ -2,45 +2,76 @@
 //! circular photon orbits (extrema of A/r^2).
 
 use crate::expr::{Expr, Scalar};
+use crate::model::{Metric, MetricSide, SideModel};
 use crate::roots::{find_roots, Root, RootKind, RootOptions};
-use crate::scenario::{Scenario, Side};
+use crate::scenario::Scenario;
 use num_dual::{Dual2, Dual3};
 use serde::Serialize;
 
-/// Evaluate A and B of one side at fixed real parameter values, over any number type.
-#[derive(Debug, Clone, Copy)]
-pub struct SideFns<'a> {
-    /// g_tt = -A(r).
-    pub a: &'a Expr,
-    /// g_rr = 1/B(r).
-    pub b: &'a Expr,
+/// One side bound to fixed real parameter values: A and B over any number type, evaluated only through the
+/// side's [`MetricSide`] impl (so horizons, regions and photon orbits work for every kind of side).
+#[derive(Debug)]
+pub struct SideFns<'a, M: MetricSide = Metric> {
+    /// The side's metric functions.
+    pub side: &'a M,
     /// Parameter values.
     pub params: &'a [f64],
+    /// True for the view whose "B" is the side's A ([`SideFns::a_as_b`]).
+    a_as_b: bool,
 }
 
+impl<M: MetricSide> Clone for SideFns<'_, M> {
+    fn clone(&self) -> Self {
+        *self
+    }
+}
+
+impl<M: MetricSide> Copy for SideFns<'_, M> {}
+
 impl<'a> SideFns<'a> {
-    /// Bind a side to parameter values.
-    pub fn new(side: &'a Side, params: &'a [f64]) -> Self {
-        SideFns { a: &side.a, b: &side.b, params }
+    /// Bind a model side to parameter values.
+    pub fn of(side: &'a SideModel, params: &'a [f64]) -> Self {
+        SideFns::new(&side.metric, params)
+    }
+}
+
+impl<'a, M: MetricSide> SideFns<'a, M> {
+    /// Bind any metric side to parameter values.
+    pub fn new(side: &'a M, params: &'a [f64]) -> Self {
+        SideFns { side, params, a_as_b: false }
     }
 
-    /// Bind a model side to parameter values.
-    pub fn of(side: &'a crate::model::SideModel, params: &'a [f64]) -> Self {
-        match &side.metric {
-            crate::model::Metric::Expr(e) => SideFns { a: &e.a, b: &e.b, params },
-        }
+    /// The same side seen with A in the place of B: its "horizons" are the zeros of A (statics cuts a range at
+    /// the zeros of A where B is given separately).
+    pub fn a_as_b(&self) -> Self {
+        SideFns { a_as_b: true, ..*self }
+    }
+
+    /// True when B is the same function as A (on this view).
+    pub fn b_is_a(&self) -> bool {
+        self.a_as_b || self.side.b_is_a()
+    }
+
+    /// B as an expression, where the side has one (the rational shortcut for horizons).
+    fn b_expression(&self) -> Option<&'a Expr> {
+        self.side.expressions().map(|(a, b)| if self.a_as_b { a } else { b })
     }
 
     /// A(r).
     #[inline]
     pub fn a<T: Scalar>(&self, r: T) -> T {
-        self.a.eval_at(r, self.params)
+        let p = self.params;
+        self.side.a(r, move |k| T::from(p[k]))
     }
 
     /// B(r).
     #[inline]
     pub fn b<T: Scalar>(&self, r: T) -> T {
-        self.b.eval_at(r, self.params)
+        if self.a_as_b {
+            return self.a(r);
+        }
+        let p = self.params;
+        self.side.b(r, move |k| T::from(p[k]))
     }
 
     /// dA/dr evaluated at a dual-number radius: A' as a Dual2 from one third-order evaluation.
@@ -106,10 +137,10 @@ pub struct SideSurvey {
 /// Horizons of a side in [lo, hi]: every root of B, simple or degenerate, and the poles of B (sign changes
 /// through infinity). Roots come from the sampled search of `roots::find_roots` (sign changes, and minima of |B|
 /// where B and B' vanish together: double roots); when B is rational in r, the real roots of its numerator from
-/// the companion matrix (`rational`) replace the sampled ones near them, giving degenerate horizons to rounding.
-pub fn horizons(fns: &SideFns, lo: f64, hi: f64, opts: &RootOptions) -> (Vec<Horizon>, Vec<f64>) {
+/// the companion matrix (`rational`, for a side with expressions) replace the sampled ones near them, giving degenerate horizons to rounding.
+pub fn horizons<M: MetricSide>(fns: &SideFns<M>, lo: f64, hi: f64, opts: &RootOptions) -> (Vec<Horizon>, Vec<f64>) {
     let (mut hs, poles) = sampled_horizons(fns, lo, hi, opts);
-    if let Some((num, den)) = crate::rational::rational(fns.b, fns.params) {
+    if let Some((num, den)) = fns.b_expression().and_then(|b| crate::rational::rational(b, fns.params)) {
         let dscale = den.iter().fold(0.0f64, |m, c| m.max(c.abs()));
         let exact: Vec<Horizon> = crate::rational::real_roots(&num, lo, hi)
             .into_iter()
@@ -130,7 +161,7 @@ pub fn horizons(fns: &SideFns, lo: f64, hi: f64, opts: &RootOptions) -> (Vec<Hor
     (hs, poles)
 }
 
-fn sampled_horizons(fns: &SideFns, lo: f64, hi: f64, opts: &RootOptions) -> (Vec<Horizon>, Vec<f64>) {
+fn sampled_horizons<M: MetricSide>(fns: &SideFns<M>, lo: f64, hi: f64, opts: &RootOptions) -> (Vec<Horizon>, Vec<f64>) {
     let f = |r: f64| {
         let d: Dual2<f64, f64> = fns.b(Dual2::new(r, 1.0, 0.0));
         Some((d.re, d.v1))
@@ -156,7 +187,7 @@ fn sampled_horizons(fns: &SideFns, lo: f64, hi: f64, opts: &RootOptions) -> (Vec
 /// B = (1 - M/r)^2, separates two R-regions, which are reported as two regions of the same kind with the
 /// double horizon between them (B >= 0 on both sides; common practice, e.g. Carter 1966 for the extremal
 /// case, from memory). Only a pole between two pieces of the same kind is merged over.
-pub fn regions(fns: &SideFns, lo: f64, hi: f64, horizons: &[Horizon], poles: &[f64]) -> Vec<Region> {
+pub fn regions<M: MetricSide>(fns: &SideFns<M>, lo: f64, hi: f64, horizons: &[Horizon], poles: &[f64]) -> Vec<Region> {
     let mut cuts: Vec<(f64, bool)> = horizons.iter().map(|h| (h.radius, true)).collect();
     cuts.extend(poles.iter().map(|&p| (p, false)));
     cuts.sort_by(|a, b| a.0.total_cmp(&b.0));
@@ -179,7 +210,7 @@ pub fn regions(fns: &SideFns, lo: f64, hi: f64, horizons: &[Horizon], poles: &[f
 
 /// The kind of region at `mid`, a point of (x0, x1) between horizons: the sign of B there, and if B happens to
 /// vanish to rounding at that point (a horizon missed by the sampler), the sign at the quarter points.
-fn region_kind_at(fns: &SideFns, mid: f64, x0: f64, x1: f64) -> RegionKind {
+fn region_kind_at<M: MetricSide>(fns: &SideFns<M>, mid: f64, x0: f64, x1: f64) -> RegionKind {
     let mut b: f64 = fns.b(mid);
     if b == 0.0 || !b.is_finite() {
         let q = [0.5 * (x0 + mid), 0.5 * (mid + x1)];
@@ -194,7 +225,7 @@ fn region_kind_at(fns: &SideFns, mid: f64, x0: f64, x1: f64) -> RegionKind {
 
 /// The region kind of a side at one radius (sign of B; a horizon counts as the region of neither kind and
 /// returns `None`, as does a non-finite B).
-pub fn region_at(fns: &SideFns, r: f64) -> Option<RegionKind> {
+pub fn region_at<M: MetricSide>(fns: &SideFns<M>, r: f64) -> Option<RegionKind> {
     let b: f64 = fns.b(r);
     if !b.is_finite() || b == 0.0 {
         None
@@ -208,7 +239,7 @@ pub fn region_at(fns: &SideFns, r: f64) -> Option<RegionKind> {
 /// Circular photon orbits: extrema of A/r^2, i.e. roots of r A' - 2 A, kept where B > 0 and A > 0.
 /// (For any static spherically symmetric metric the radial null geodesic potential is L^2 A/r^2; common
 /// practice, e.g. Hartle 2003 sec. 9.3 for Schwarzschild's r = 3M.)
-pub fn photon_orbits(fns: &SideFns, lo: f64, hi: f64, opts: &RootOptions) -> Vec<f64> {
+pub fn photon_orbits<M: MetricSide>(fns: &SideFns<M>, lo: f64, hi: f64, opts: &RootOptions) -> Vec<f64> {
     let h = |r: f64| {
         let d: Dual3<f64, f64> = fns.a(Dual3::new(r, 1.0, 0.0, 0.0));
         // g = r A' - 2A, g' = r A'' - A', g'' = r A''' .
@@ -231,7 +262,7 @@ pub fn photon_orbits(fns: &SideFns, lo: f64, hi: f64, opts: &RootOptions) -> Vec
 }
 
 /// Survey one side over [lo, hi].
-pub fn survey(fns: &SideFns, lo: f64, hi: f64, opts: &RootOptions) -> SideSurvey {
+pub fn survey<M: MetricSide>(fns: &SideFns<M>, lo: f64, hi: f64, opts: &RootOptions) -> SideSurvey {
     let (hs, poles) = horizons(fns, lo, hi, opts);
     let regions = regions(fns, lo, hi, &hs, &poles);
     let photon_orbits = photon_orbits(fns, lo, hi, opts);
@@ -256,6 +287,7 @@ pub fn default_range(scenario: &Scenario) -> (f64, f64) {
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::model::ExprSide;
 
     #[test]
     fn reissner_nordstrom_horizons_and_photon_orbit() {
@@ -264,7 +296,8 @@ mod tests {
         let names = vec!["m".to_string(), "q".to_string()];
         let e = Expr::parse("1 - 2*m/r + q^2/r^2", "r", &names).unwrap();
         let p = [1.0, 0.8];
-        let fns = SideFns { a: &e, b: &e, params: &p };
+        let side = Metric::Expr(ExprSide::new(e.clone(), None));
+        let fns = SideFns::new(&side, &p);
         let s = survey(&fns, 0.01, 100.0, &RootOptions::default());
         assert_eq!(s.horizons.len(), 2);
         assert!((s.horizons[0].radius - 0.4).abs() < 1e-13);
@@ -281,7 +314,8 @@ mod tests {
         let names = vec!["m".to_string(), "q".to_string()];
         let e = Expr::parse("1 - 2*m/r + q^2/r^2", "r", &names).unwrap();
         let p = [1.0, 1.0];
-        let fns = SideFns { a: &e, b: &e, params: &p };
+        let side = Metric::Expr(ExprSide::new(e.clone(), None));
+        let fns = SideFns::new(&side, &p);
         let (hs, _) = horizons(&fns, 0.01, 100.0, &RootOptions::default());
         assert_eq!(hs.len(), 1);
         assert!(hs[0].degenerate);
@@ -297,7 +331,8 @@ mod tests {
         let names = vec!["m".to_string()];
         let e = Expr::parse("(1 - m/r)^2", "r", &names).unwrap();
         let p = [1.3];
-        let fns = SideFns { a: &e, b: &e, params: &p };
+        let side = Metric::Expr(ExprSide::new(e.clone(), None));
+        let fns = SideFns::new(&side, &p);
         let s = survey(&fns, 1.3e-3, 1.3e3, &RootOptions::default());
         assert_eq!(s.horizons.len(), 1, "{:?}", s.horizons);
         assert!(s.horizons[0].degenerate);
@@ -314,7 +349,8 @@ mod tests {
         let names = vec!["m".to_string(), "q".to_string()];
         let e = Expr::parse("1 - 2*m/r + q^2/r^2", "r", &names).unwrap();
         let p = [1.0, 0.99999];
-        let fns = SideFns { a: &e, b: &e, params: &p };
+        let side = Metric::Expr(ExprSide::new(e.clone(), None));
+        let fns = SideFns::new(&side, &p);
         let s = survey(&fns, 1e-3, 1e3, &RootOptions::default());
         let d = (1.0f64 - 0.99999f64 * 0.99999).sqrt();
         assert_eq!(s.horizons.len(), 2, "{:?}", s.horizons);
@@ -322,5 +358,79 @@ mod tests {
         assert!((s.horizons[1].radius - (1.0 + d)).abs() < 1e-10);
         let kinds: Vec<RegionKind> = s.regions.iter().map(|r| r.kind).collect();
         assert_eq!(kinds, vec![RegionKind::R, RegionKind::T, RegionKind::R]);
+    }
+
+    /// Reissner-Nordstrom written as Rust arithmetic, not as an expression: A = B = 1 - 2m/r + q^2/r^2 with
+    /// m = parameter 0, q = parameter 1. It has no expressions, so the horizon search cannot take the rational
+    /// shortcut and must evaluate the side through `MetricSide` alone.
+    struct ArithmeticReissnerNordstrom;
+
+    impl MetricSide for ArithmeticReissnerNordstrom {
+        fn a<T: Scalar, P: Fn(usize) -> T + Copy>(&self, r: T, param: P) -> T {
+            let (m, q) = (param(0), param(1));
+            T::one() - m * 2.0 / r + q * q / (r * r)
+        }
+        fn b<T: Scalar, P: Fn(usize) -> T + Copy>(&self, r: T, param: P) -> T {
+            self.a(r, param)
+        }
+        fn b_is_a(&self) -> bool {
+            true
+        }
+        fn expressions(&self) -> Option<(&Expr, &Expr)> {
+            None
+        }
+    }
+
+    /// Horizons, regions and photon orbits of a side that is only a `MetricSide` impl come out of the same
+    /// functions the expression sides use: r_pm = m +- sqrt(m^2 - q^2) (common practice; e.g. Chandrasekhar 1983,
+    /// sec. 40, from memory), the photon sphere (3m + sqrt(9m^2 - 8q^2))/2 (same source), R, T, R regions.
+    #[test]
+    fn a_side_written_as_rust_arithmetic_has_the_reissner_nordstrom_horizons() {
+        let side = ArithmeticReissnerNordstrom;
+        for (m, q) in [(1.0, 0.8), (2.5, 1.0), (1.0, 0.3), (0.7, 0.69)] {
+            let p = [m, q];
+            let fns = SideFns::new(&side, &p);
+            assert!(fns.b_is_a());
+            let s = survey(&fns, 1e-3, 1e3, &RootOptions::default());
+            let d: f64 = (m * m - q * q).sqrt();
+            assert_eq!(s.horizons.len(), 2, "m={m} q={q}: {:?}", s.horizons);
+            assert!((s.horizons[0].radius - (m - d)).abs() < 1e-12 * m, "m={m} q={q}: {:?}", s.horizons);
+            assert!((s.horizons[1].radius - (m + d)).abs() < 1e-12 * m, "m={m} q={q}: {:?}", s.horizons);
+            assert!(s.horizons.iter().all(|h| !h.degenerate));
+            // B'(r_+) = (r_+ - r_-) / r_+^2 from B = (r - r_+)(r - r_-)/r^2 (common practice).
+            let slope = 2.0 * d / ((m + d) * (m + d));
+            assert!((s.horizons[1].b_slope - slope).abs() < 1e-10 * slope.abs(), "{:?}", s.horizons[1]);
+            let kinds: Vec<RegionKind> = s.regions.iter().map(|r| r.kind).collect();
+            assert_eq!(kinds, vec![RegionKind::R, RegionKind::T, RegionKind::R]);
+            let ph = (3.0 * m + (9.0 * m * m - 8.0 * q * q).sqrt()) / 2.0;
+            assert_eq!(s.photon_orbits.len(), 1);
+            assert!((s.photon_orbits[0] - ph).abs() < 1e-12 * ph);
+        }
+        // Extremal, q = m: one double horizon at r = m, found by the sampled search alone (no rational shortcut
+        // without expressions, so to the sampler's accuracy).
+        let p = [1.0, 1.0];
+        let (hs, _) = horizons(&SideFns::new(&side, &p), 1e-3, 1e3, &RootOptions::default());
+        assert_eq!(hs.len(), 1, "{hs:?}");
+        assert!(hs[0].degenerate);
+        assert!((hs[0].radius - 1.0).abs() < 1e-7, "{hs:?}");
+    }
+
+    /// The view with A in the place of B finds the zeros of A, not of B: A = 1 - 2m/r, B = 1 has its only zero
+    /// of A at r = 2m and no horizon (common practice).
+    #[test]
+    fn a_as_b_view_finds_the_zeros_of_a() {
+        let names = vec!["m".to_string()];
+        let a = Expr::parse("1 - 2*m/r", "r", &names).unwrap();
+        let b = Expr::parse("1", "r", &names).unwrap();
+        let side = Metric::Expr(ExprSide::new(a, Some(b)));
+        let p = [1.5];
+        let fns = SideFns::new(&side, &p);
+        assert!(!fns.b_is_a());
+        assert!(horizons(&fns, 1e-3, 1e3, &RootOptions::default()).0.is_empty());
+        let view = fns.a_as_b();
+        assert!(view.b_is_a());
+        let (zeros, _) = horizons(&view, 1e-3, 1e3, &RootOptions::default());
+        assert_eq!(zeros.len(), 1, "{zeros:?}");
+        assert!((zeros[0].radius - 3.0).abs() < 1e-14, "{zeros:?}");
     }
 }

@@ -64,7 +64,7 @@ pub fn survey(s: &Scenario, lo: f64, hi: f64) -> SurveyReport {
     let opts = RootOptions { samples: SURVEY_SAMPLES, ..Default::default() };
     let side = |w: Which| {
         let sd = s.side(w);
-        let fns = SideFns::new(sd, s.params.values());
+        let fns = SideFns::of(s.model.side(w), s.params.values());
         SideReport {
             keep: sd.keep.name().to_string(),
             normal_sign: sd.normal_sign(),

@@ -114,7 +114,12 @@ pub fn write_report(s: &Scenario, dir: &Path, opts: &ReportOptions) -> Result<Ve
         .map(|&w| {
             (
                 w.name().to_string(),
-                crate::metric::survey(&crate::metric::SideFns::new(s.side(w), s.params.values()), slo, shi, &ropts),
+                crate::metric::survey(
+                    &crate::metric::SideFns::of(s.model.side(w), s.params.values()),
+                    slo,
+                    shi,
+                    &ropts,
+                ),
             )
         })
         .collect();

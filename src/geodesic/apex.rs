@@ -218,6 +218,7 @@ fn series_apex(fns: &SideFns, energy_sq: f64, h: f64, quad: &QuadOptions) -> Res
 mod tests {
     use super::*;
     use crate::expr::Expr;
+    use crate::model::{ExprSide, Metric};
 
     /// Proper radial distance from the Schwarzschild horizon to r = 2M + delta:
     /// sqrt(r (r - 2M)) + 2M ln(sqrt(r/2M) + sqrt(r/2M - 1)), the elementary antiderivative of (1 - 2M/r)^(-1/2)
@@ -232,7 +233,8 @@ mod tests {
         let e = Expr::parse("1 - 2*m/r", "r", &["m".to_string()]).unwrap();
         for m in [1.0, 3.0] {
             let p = [m];
-            let fns = SideFns { a: &e, b: &e, params: &p };
+            let side = Metric::Expr(ExprSide::new(e.clone(), None));
+            let fns = SideFns::new(&side, &p);
             for e2 in [0.64, 1e-3, 1e-7, 1e-40, 1e-120] {
                 let ap =
                     max_radius(&fns, e2, m, 1e6, &RootOptions::default(), &QuadOptions::default()).unwrap().unwrap();
@@ -255,7 +257,8 @@ mod tests {
         let names = vec!["m".to_string(), "q".to_string()];
         let e = Expr::parse("1 - 2*m/r + q^2/r^2", "r", &names).unwrap();
         let p = [1.0, 0.8];
-        let fns = SideFns { a: &e, b: &e, params: &p };
+        let side = Metric::Expr(ExprSide::new(e.clone(), None));
+        let fns = SideFns::new(&side, &p);
         let (rp, rm) = (1.6, 0.4);
         for e2 in [0.5, 1e-30] {
             let mut delta = 0.0;
@@ -272,7 +275,8 @@ mod tests {
     fn unbounded_orbit_has_no_apex_and_forbidden_start_is_refused() {
         let e = Expr::parse("1 - 2*m/r", "r", &["m".to_string()]).unwrap();
         let p = [1.0];
-        let fns = SideFns { a: &e, b: &e, params: &p };
+        let side = Metric::Expr(ExprSide::new(e.clone(), None));
+        let fns = SideFns::new(&side, &p);
         let none = max_radius(&fns, 1.2, 1.0, 1e4, &RootOptions::default(), &QuadOptions::default()).unwrap();
         assert!(none.is_none());
         let err = max_radius(&fns, 0.25, 10.0, 1e4, &RootOptions::default(), &QuadOptions::default()).unwrap_err();

@@ -20,8 +20,9 @@
 use super::radial::Particle;
 use crate::error::{Error, ErrorKind, RequestField, Result};
 use crate::metric::SideFns;
+use crate::model::SideModel;
 use crate::phrase;
-use crate::scenario::{Scenario, ShellKind, Side};
+use crate::scenario::{Scenario, ShellKind};
 use serde::Serialize;
 
 /// The particle's radial direction on the minus side.
@@ -95,8 +96,8 @@ pub struct Crossing {
     pub plus: Option<SideState>,
 }
 
-fn side_values(side: &Side, params: &[f64], r: f64) -> Result<(f64, f64)> {
-    let fns = SideFns::new(side, params);
+fn side_values(side: &SideModel, params: &[f64], r: f64) -> Result<(f64, f64)> {
+    let fns = SideFns::of(side, params);
     let (a, b): (f64, f64) = (fns.a(r), fns.b(r));
     if !(a.is_finite() && b.is_finite()) {
         return Err(Error::numerical(format!("[{}] A or B is not finite at R = {r} (A = {a}, B = {b})", side.which))
@@ -126,8 +127,8 @@ pub fn cross(scenario: &Scenario, params: &[f64], req: &CrossingRequest) -> Resu
     if !req.energy_minus.is_finite() || !req.shell_velocity.is_finite() {
         return Err(Error::input("the energy and the shell velocity must be finite numbers"));
     }
-    let (am, bm) = side_values(&scenario.minus, params, r)?;
-    let (ap, bp) = side_values(&scenario.plus, params, r)?;
+    let (am, bm) = side_values(&scenario.model.minus, params, r)?;
+    let (ap, bp) = side_values(&scenario.model.plus, params, r)?;
     let (num, nup) = (scenario.minus.normal_sign(), scenario.plus.normal_sign());
     match scenario.shell.kind {
         ShellKind::Timelike => {

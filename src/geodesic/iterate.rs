@@ -122,7 +122,7 @@ pub fn run_chain(chain: &Chain, crossings: usize, threshold: Option<f64>) -> Res
         energy = e_plus;
         let one_minus = 1.0 - energy * energy;
         row.one_minus_energy_sq = Some(one_minus);
-        let fns = SideFns::new(&stage.scenario.plus, &params);
+        let fns = SideFns::of(&stage.scenario.model.plus, &params);
         let hi = 1e8 * radius.max(length_scale(&stage.scenario));
         match max_radius(&fns, energy * energy, radius, hi, &roots, &quad) {
             Ok(Some(apex)) => {
@@ -158,8 +158,8 @@ fn continuity_warning(chain: &Chain, k: usize, params: &[f64], radius: f64) -> O
     let n = chain.stages.len();
     let next = &chain.stages[(k + 1) % n];
     let next_params = next.params_for_pass(&chain.multiply, (k + 1) / n).ok()?;
-    let this = SideFns::new(&chain.stages[k % n].scenario.plus, params);
-    let that = SideFns::new(&next.scenario.minus, &next_params);
+    let this = SideFns::of(&chain.stages[k % n].scenario.model.plus, params);
+    let that = SideFns::of(&next.scenario.model.minus, &next_params);
     for f in [0.5, 1.0, 3.0, 17.0] {
         let r = f * radius;
         let (a, b): (f64, f64) = (this.a(r), that.a(r));

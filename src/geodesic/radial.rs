@@ -41,7 +41,7 @@ pub struct Radial<'a> {
 impl<'a> Radial<'a> {
     /// A radial geodesic with energy `energy` on the side `fns`.
     pub fn new(fns: SideFns<'a>, energy: f64, particle: Particle) -> Self {
-        let same_ab = fns.a == fns.b;
+        let same_ab = fns.b_is_a();
         Radial { fns, energy, particle, same_ab }
     }
 
@@ -207,6 +207,7 @@ fn finish(q: Quad, what: &str, r1: f64, r2: f64) -> Result<Quad> {
 mod tests {
     use super::*;
     use crate::expr::Expr;
+    use crate::model::{ExprSide, Metric};
 
     fn schwarzschild() -> Expr {
         Expr::parse("1 - 2*m/r", "r", &["m".to_string()]).unwrap()
@@ -219,7 +220,8 @@ mod tests {
         let e = schwarzschild();
         for (m, energy) in [(1.0, 0.8), (2.5, 0.3), (1.0, 0.99)] {
             let p = [m];
-            let fns = SideFns { a: &e, b: &e, params: &p };
+            let side = Metric::Expr(ExprSide::new(e.clone(), None));
+            let fns = SideFns::new(&side, &p);
             let rad = Radial::new(fns, energy, Particle::Timelike);
             let rmax = 2.0 * m / (1.0 - energy * energy);
             let tp = rad.turning_points(0.01, 1e3, &RootOptions::default());
@@ -237,7 +239,8 @@ mod tests {
         // r* = r + 2M ln(r/2M - 1) for Schwarzschild (common practice; e.g. Hartle 2003 ch. 12, from memory).
         let e = schwarzschild();
         let p = [1.0];
-        let fns = SideFns { a: &e, b: &e, params: &p };
+        let side = Metric::Expr(ExprSide::new(e.clone(), None));
+        let fns = SideFns::new(&side, &p);
         let rad = Radial::new(fns, 1.0, Particle::Null);
         let q = rad.coordinate_time(3.0, 10.0, &RootOptions::default(), &QuadOptions::default()).unwrap();
         let rs = |r: f64| r + 2.0 * (r / 2.0 - 1.0).ln();
@@ -250,7 +253,8 @@ mod tests {
     fn interval_past_a_turning_point_is_refused() {
         let e = schwarzschild();
         let p = [1.0];
-        let fns = SideFns { a: &e, b: &e, params: &p };
+        let side = Metric::Expr(ExprSide::new(e.clone(), None));
+        let fns = SideFns::new(&side, &p);
         let rad = Radial::new(fns, 0.8, Particle::Timelike);
         let err = rad.proper_time(3.0, 8.0, &RootOptions::default(), &QuadOptions::default()).unwrap_err();
         assert!(err.message.contains("turns at r = 5.55"), "{err}");

@@ -107,7 +107,7 @@ pub fn report(s: &Scenario, req: &CrossingRequest) -> Result<CrossingReport> {
 fn orbit_report(s: &Scenario, which: Which, state: SideState, req: &CrossingRequest) -> OrbitReport {
     let roots = RootOptions { samples: 2000, ..Default::default() };
     let quad = QuadOptions::default();
-    let fns = SideFns::new(s.side(which), s.params.values());
+    let fns = SideFns::of(s.model.side(which), s.params.values());
     let rad = Radial::new(fns, state.energy, req.particle);
     let (lo, hi) = default_range(s);
     let (lo, hi) = (lo.min(0.5 * req.radius), hi.max(10.0 * req.radius));

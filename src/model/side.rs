@@ -26,6 +26,16 @@ pub struct ExprSide {
     pub b_given: bool,
 }
 
+impl ExprSide {
+    /// The side with A(r) = `a` and B(r) = `b`, or B = A when `b` is `None`.
+    pub fn new(a: Expr, b: Option<Expr>) -> ExprSide {
+        match b {
+            Some(b) => ExprSide { a, b, b_given: true },
+            None => ExprSide { b: a.clone(), a, b_given: false },
+        }
+    }
+}
+
 impl MetricSide for ExprSide {
     #[inline]
     fn a<T: Scalar, P: Fn(usize) -> T + Copy>(&self, r: T, param: P) -> T {

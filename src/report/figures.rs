@@ -92,7 +92,7 @@ pub fn overlays(s: &Scenario, lo: f64, hi: f64) -> Overlays {
     let ropts = crate::roots::RootOptions::default();
     let mut found: Vec<(f64, &str, &str)> = Vec::new();
     for (w, mark) in [(Which::Minus, "⁻"), (Which::Plus, "⁺")] {
-        let fns = crate::metric::SideFns::new(s.side(w), s.params.values());
+        let fns = crate::metric::SideFns::of(s.model.side(w), s.params.values());
         let sv = crate::metric::survey(&fns, slo.min(lo), shi.max(hi), &ropts);
         for h in sv.horizons {
             found.push((h.radius, "rₕ", mark));

@@ -156,7 +156,7 @@ impl Side {
     pub fn model(&self) -> SideModel {
         SideModel {
             which: self.which,
-            metric: Metric::Expr(ExprSide { a: self.a.clone(), b: self.b.clone(), b_given: self.b_given }),
+            metric: Metric::Expr(ExprSide::new(self.a.clone(), self.b_given.then(|| self.b.clone()))),
             keep: self.keep,
             normal_sign: self.normal_sign(),
         }

@@ -14,7 +14,7 @@ use crate::expr::Scalar;
 use crate::junction::potential::Law;
 use crate::junction::{admissible, Jet, Junction, StaticValues};
 use crate::metric::{horizons, SideFns};
-use crate::model::{MetricSide, Model};
+use crate::model::Model;
 use crate::roots::{find_roots, RootKind, RootOptions};
 use crate::scenario::{Scenario, ShellKind, Which};
 use crate::tolerances::TOL;
@@ -239,9 +239,9 @@ pub fn range_cuts(m: &Model, params: &[f64], lo: f64, hi: f64, opts: &StaticsOpt
         for p in poles {
             cuts.push(Cut { radius: p, side: w, kind: CutKind::Pole });
         }
-        if !m.side(w).metric.b_is_a() {
+        if !fns.b_is_a() {
             // Zeros of A that are not zeros of B bound the parts where the metric changes signature.
-            let a_fns = SideFns { a: fns.a, b: fns.a, params };
+            let a_fns = fns.a_as_b();
             let at_horizon = |x: f64| cuts.iter().any(|c| (c.radius - x).abs() <= 1e-9 * x.abs().max(1.0));
             let zeros: Vec<f64> = horizons(&a_fns, lo, hi, &opts.roots)
                 .0

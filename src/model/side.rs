@@ -24,14 +24,16 @@ pub struct ExprSide {
     pub b: Expr,
     /// True if B was given separately.
     pub b_given: bool,
+    /// True if B is the same function as A: not given, or given as the same expression.
+    pub b_is_a: bool,
 }
 
 impl ExprSide {
     /// The side with A(r) = `a` and B(r) = `b`, or B = A when `b` is `None`.
     pub fn new(a: Expr, b: Option<Expr>) -> ExprSide {
         match b {
-            Some(b) => ExprSide { a, b, b_given: true },
-            None => ExprSide { b: a.clone(), a, b_given: false },
+            Some(b) => ExprSide { b_is_a: a == b, a, b, b_given: true },
+            None => ExprSide { b: a.clone(), a, b_given: false, b_is_a: true },
         }
     }
 }
@@ -46,7 +48,7 @@ impl MetricSide for ExprSide {
         self.b.eval_with(r, param)
     }
     fn b_is_a(&self) -> bool {
-        !self.b_given
+        self.b_is_a
     }
     fn expressions(&self) -> Option<(&Expr, &Expr)> {
         Some((&self.a, &self.b))

@@ -14,7 +14,7 @@ use crate::export::json::pretty;
 use crate::export::map::{rerun_shard_hint, verify_part, DataDigest, MapMeta};
 use crate::output::{ensure_dir, write_atomic, AtomicFile};
 use crate::plot::FigureOptions;
-use crate::report::map::{map_file_figure, no_figure_note, MAX_KEPT_CELLS};
+use crate::report::map::{map_file_figure, no_figure_note, MAX_FILE_CELLS, MAX_KEPT_CELLS, MAX_LINE_CELLS};
 use crate::scan::{shard_lines, MapSpec, Summary};
 use crate::scenario::Scenario;
 use serde::Serialize;
@@ -164,7 +164,21 @@ pub fn merge_parts(parts: &[PathBuf], out: &Path, figure: &FigureOptions) -> Res
             format!("{}: its axes do not give its {} lines", read[0].csv.display(), first.lines),
         ));
     }
-    let keep = (spec.x.n as u64).saturating_mul(spec.y.n as u64) <= MAX_KEPT_CELLS;
+    // No map writes more to files (`report::map::check_size`): larger axes are tampered, and would overflow
+    // the counts of rows below.
+    let cells = spec.x.n as u128 * spec.y.n as u128;
+    if cells > MAX_FILE_CELLS || spec.x.n.max(spec.y.n) > MAX_LINE_CELLS {
+        return Err(refused(
+            &read[0].json,
+            format!(
+                "{}: its axes give {cells} cells, more than a map writes to files (at most {MAX_FILE_CELLS} \
+                 cells, {MAX_LINE_CELLS} on one axis)",
+                read[0].csv.display()
+            ),
+        )
+        .with_hint_phrase(rerun_shard_hint()));
+    }
+    let keep = cells <= MAX_KEPT_CELLS as u128;
     let scenario = part_scenario(&read[0])?;
     let mut total = Summary::default();
     let mut cells = Vec::new();

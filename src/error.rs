@@ -97,6 +97,8 @@ pub enum RequestField {
     YLim,
     /// Splitting a scan into parts.
     Shard,
+    /// The part files of a sharded map, to be merged.
+    Parts,
     /// Starting a motion at rest on a static radius.
     FromStatic,
     /// Stopping a motion at a horizon.
@@ -149,6 +151,7 @@ impl RequestField {
             XLim => "xlim",
             YLim => "ylim",
             Shard => "shard",
+            Parts => "parts",
             FromStatic => "from static",
             StopAtHorizon => "stop at horizon",
             State => "state",

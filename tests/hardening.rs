@@ -293,6 +293,25 @@ fn merge_refuses_swapped_part_files() {
     assert_merge_refused(&parts, &t.path().join("m"), "expected (0, 0)");
 }
 
+/// Axes edited in both part files (with the line count to match) to more cells than any map writes: refused
+/// before the row count is multiplied out (it overflowed and panicked).
+#[test]
+fn merge_refuses_part_axes_too_large_to_write() {
+    let t = tempfile::tempdir().unwrap();
+    let parts = two_parts(t.path());
+    for (axis, lines) in [("x", 4u64), ("y", 1 << 63)] {
+        for p in &parts {
+            let mut m: serde_json::Value = serde_json::from_str(&std::fs::read_to_string(p).unwrap()).unwrap();
+            m["spec"]["x"]["n"] = 4.into();
+            m["spec"]["y"]["n"] = 4.into();
+            m["spec"][axis]["n"] = (1u64 << 63).into();
+            m["lines"] = lines.into();
+            std::fs::write(p, serde_json::to_string_pretty(&m).unwrap()).unwrap();
+        }
+        assert_merge_refused(&parts, &t.path().join("m"), "more than a map writes to files");
+    }
+}
+
 #[test]
 fn merge_of_untouched_parts_still_matches_the_whole_map() {
     let t = tempfile::tempdir().unwrap();

@@ -184,3 +184,96 @@ fn map_calls_the_neutral_extremal_dust_family_marginal_everywhere() {
     assert_eq!(v["cells"], 60);
     assert_eq!(v["marginal_cells"], 60, "{out}");
 }
+
+/// Shards written by the library and merged by the library: the merged counts equal those of the whole map
+/// computed at once without files (`scan::summarize_lines`, the independent path), for a (radius, parameter)
+/// map and a map over two parameters; the merged files are the map's.
+#[test]
+fn library_merge_of_library_shards_gives_the_whole_maps_summary() {
+    use junctura::files::{merge_parts, write_map};
+    use junctura::plot::FigureOptions;
+    use junctura::report::map::map_spec;
+    use junctura::scan::{shard_lines, summarize_lines};
+    use junctura::scenario::Scenario;
+    let cases = [
+        ("scenarios/reissner-nordstrom-wormhole.toml", "radius:1.7:6:13", "q:0:0.95:7", Some(-1.0), 3),
+        ("scenarios/schwarzschild-wormhole-linear.toml", "m:0.5:2:4", "w:-0.9:-0.6:5", None, 2),
+    ];
+    for (file, x, y, beta2, n) in cases {
+        let s = Scenario::load(&root().join(file)).unwrap();
+        let spec = map_spec(&s, x, y, beta2, None, None).unwrap();
+        let tmp = tempfile::tempdir().unwrap();
+        let mut parts = Vec::new();
+        for k in 0..n {
+            let lines = shard_lines(spec.n_lines(), k, n);
+            write_map(&s, &spec, lines, Some((k, n)), tmp.path(), &FigureOptions::default(), &|_, _| {}).unwrap();
+            parts.push(tmp.path().join(format!("map.part-{}-of-{n}.json", k + 1)));
+        }
+        // In reverse order: the merge sorts them by shard.
+        let given: Vec<PathBuf> = parts.iter().rev().cloned().collect();
+        let out = tmp.path().join("merged");
+        let merged = merge_parts(&given, &out, &FigureOptions::default()).unwrap();
+        let whole = summarize_lines(&s, &spec, 0..spec.n_lines()).unwrap();
+        assert_eq!(merged.map.summary, whole, "{file}");
+        // Every grid point is one cell (common practice: the grid has x.n * y.n points).
+        assert_eq!(merged.map.summary.cells, (spec.x.n * spec.y.n) as u64, "{file}");
+        assert_eq!(merged.map.data_rows, merged.map.summary.cells, "{file}");
+        assert_eq!(merged.map.shard, None);
+        assert_eq!(merged.parts, parts);
+        let names: Vec<String> =
+            merged.written.iter().map(|p| p.file_name().unwrap().to_string_lossy().into_owned()).collect();
+        assert_eq!(names, ["map.csv", "map.json", "map.svg", "map.pdf", "map.png"], "{file}");
+        // map.json holds the returned metadata.
+        let json: serde_json::Value = serde_json::from_slice(&std::fs::read(out.join("map.json")).unwrap()).unwrap();
+        assert_eq!(json, serde_json::to_value(&merged.map).unwrap(), "{file}");
+    }
+}
+
+/// The library's merge refusals are data: the refused part (or the parts present) as the value of the request
+/// field `parts`, and hints that name the field `shard`, never a command-line option.
+#[test]
+fn library_merge_refusals_name_the_parts_and_no_option() {
+    use junctura::files::{merge_parts, write_map};
+    use junctura::plot::FigureOptions;
+    use junctura::report::map::map_spec;
+    use junctura::scan::shard_lines;
+    use junctura::scenario::Scenario;
+    use junctura::{Problem, RequestField};
+    let s = Scenario::load(&root().join("scenarios/schwarzschild-wormhole-linear.toml")).unwrap();
+    let spec = map_spec(&s, "m:0.5:2:4", "w:-0.9:-0.6:4", None, None, None).unwrap();
+    let tmp = tempfile::tempdir().unwrap();
+    let fig = FigureOptions::default();
+    for k in [0, 2] {
+        write_map(&s, &spec, shard_lines(spec.n_lines(), k, 3), Some((k, 3)), tmp.path(), &fig, &|_, _| {}).unwrap();
+    }
+    let part = |k: usize| tmp.path().join(format!("map.part-{k}-of-3.json"));
+    let out = tmp.path().join("merged");
+    let no_option = |e: &junctura::Error| assert!(!e.to_string().contains("--"), "{e}");
+
+    let missing = merge_parts(&[part(3), part(1)], &out, &fig).unwrap_err();
+    no_option(&missing);
+    assert_eq!(missing.message, "merge needs all 3 parts exactly once; got parts 1, 3");
+    assert_eq!(missing.problem, Problem::BadRequest { field: RequestField::Parts, value: "1, 3".into() });
+    assert_eq!(missing.fields(), [RequestField::Shard]);
+
+    let twice = merge_parts(&[part(1), part(1), part(3)], &out, &fig).unwrap_err();
+    assert_eq!(twice.problem, Problem::BadRequest { field: RequestField::Parts, value: "1, 1, 3".into() });
+
+    // A part whose rows were edited is named as the refused value.
+    write_map(&s, &spec, shard_lines(spec.n_lines(), 1, 3), Some((1, 3)), tmp.path(), &fig, &|_, _| {}).unwrap();
+    let csv = part(2).with_extension("csv");
+    let text = std::fs::read_to_string(&csv).unwrap();
+    std::fs::write(&csv, format!("{text}{}", text.lines().last().unwrap()) + "\n").unwrap();
+    let edited = merge_parts(&[part(1), part(2), part(3)], &out, &fig).unwrap_err();
+    no_option(&edited);
+    assert_eq!(
+        edited.problem,
+        Problem::BadRequest { field: RequestField::Parts, value: part(2).display().to_string() }
+    );
+    assert_eq!(edited.fields(), [RequestField::Shard]);
+    assert!(!out.join("map.csv").exists() && !out.join("map.json").exists());
+
+    let none = merge_parts(&[], &out, &fig).unwrap_err();
+    no_option(&none);
+    assert_eq!(none.fields(), [RequestField::Parts]);
+}

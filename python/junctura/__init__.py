@@ -26,6 +26,7 @@ __version__ = _native.VERSION
 __all__ = [
     "Scenario",
     "chain",
+    "merge",
     "Figure",
     "MapResult",
     "Record",
@@ -285,3 +286,14 @@ def chain(path=None, text=None, crossings=None, mass=None, within=None):
     defined."""
     raw = _native.chain(None if path is None else str(path), text, crossings, mass, within)
     return Result("ChainResult", raw["result"], raw["figures"], {"csv": raw["csv"]})
+
+
+def merge(parts, out):
+    """Join the parts of a sharded map (``junctura map --shard K/N``): the part metadata files ``parts``
+    (``map.part-K-of-N.json``, in any order; the ``.csv`` beside each is read too) into the folder ``out`` as
+    ``map.csv``, ``map.json`` and the map figure, exactly the files of the unsharded run. Every part is checked
+    before anything is written; a refused part raises :class:`InputError` with ``field`` "parts" and the file
+    (or the shards present) as ``value``. The result has ``parts`` (in shard order), ``map`` (the merged
+    metadata, with the summed ``summary``) and ``written`` (the files written)."""
+    raw = _native.merge([str(p) for p in parts], str(out))
+    return _result("MergeResult", raw)

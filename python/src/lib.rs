@@ -15,6 +15,7 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
     m.add_class::<model::Model>()?;
     m.add_class::<figure::Figure>()?;
     m.add_function(wrap_pyfunction!(model::chain, m)?)?;
+    m.add_function(wrap_pyfunction!(model::merge, m)?)?;
     // Kept equal to the library version (python/tests check it against the provenance line).
     m.add("VERSION", env!("CARGO_PKG_VERSION"))?;
     Ok(())

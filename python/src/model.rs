@@ -548,3 +548,14 @@ pub fn chain<'py>(
     d.set_item("figures", f)?;
     Ok(d)
 }
+
+/// Join the parts of a sharded map (`merge`): the part metadata files `parts` (map.part-K-of-N.json, in any
+/// order; the .csv beside each is read too) into `out` as map.csv, map.json and the map figure. The result
+/// holds the parts in shard order, the merged map's metadata (`map`, with the summed `summary`) and the files
+/// written.
+#[pyfunction]
+pub fn merge<'py>(py: Python<'py>, parts: Vec<PathBuf>, out: PathBuf) -> PyResult<Bound<'py, PyDict>> {
+    let figure = junctura::plot::FigureOptions::default();
+    let r = py.detach(|| junctura::files::merge_parts(&parts, &out, &figure)).py(py)?;
+    bundle(py, &r, vec![])
+}

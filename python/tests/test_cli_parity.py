@@ -4,6 +4,7 @@ the same numbers as `junctura COMMAND ... --format json` (both run the same libr
 import csv
 import json
 import math
+import pathlib
 
 import numpy as np
 import pytest
@@ -176,3 +177,33 @@ def test_closed_forms_match_the_cli(path, cli, cli_json):
 def test_evolve_from_any_start_matches_the_cli(path, args, kw, cli_json):
     want = cli_json("evolve", path, "--radius", "5", "--duration", "30", *args)
     same(junctura.Scenario.load(path).evolve(5.0, 30.0, **kw).to_dict(), want)
+
+
+def test_merge_joins_cli_shards_into_the_whole_maps_files(cli, tmp_path):
+    p = "scenarios/reissner-nordstrom-wormhole.toml"
+    axes = ["--x", "radius:1.7:6:13", "--y", "q:0:0.95:7", "--beta2", "-1"]
+    cli("map", p, *axes, "--out", tmp_path / "whole")
+    for k in [1, 2, 3]:
+        cli("map", p, *axes, "--shard", f"{k}/3", "--out", tmp_path / "parts")
+    parts = [tmp_path / "parts" / f"map.part-{k}-of-3.json" for k in [3, 1, 2]]
+    r = junctura.merge(parts, tmp_path / "merged")
+    # The independent path: the whole map's counts computed at once by `map --summary`.
+    whole = json.loads(cli("map", p, *axes, "--summary").stdout)
+    for key, n in r.map.summary.to_dict().items():
+        assert n == whole[key], key
+    assert r.parts == [str(tmp_path / "parts" / f"map.part-{k}-of-3.json") for k in [1, 2, 3]]
+    assert [pathlib.Path(f).name for f in r.written] == ["map.csv", "map.json", "map.svg", "map.pdf", "map.png"]
+    for f in ["map.csv", "map.json", "map.svg"]:
+        assert (tmp_path / "merged" / f).read_bytes() == (tmp_path / "whole" / f).read_bytes(), f
+
+
+def test_merge_refuses_a_missing_part_naming_the_parts(cli, tmp_path):
+    p = "scenarios/schwarzschild-wormhole-linear.toml"
+    for k in [1, 3]:
+        cli("map", p, "--x", "m:0.5:2:4", "--y", "w:-0.9:-0.6:4", "--shard", f"{k}/3", "--out", tmp_path)
+    with pytest.raises(junctura.InputError) as e:
+        junctura.merge([tmp_path / "map.part-3-of-3.json", tmp_path / "map.part-1-of-3.json"], tmp_path / "m")
+    assert e.value.message == "merge needs all 3 parts exactly once; got parts 1, 3"
+    assert (e.value.field, e.value.value) == ("parts", "1, 3")
+    assert "--" not in str(e.value) and "shard K/N" in e.value.hint
+    assert not (tmp_path / "m" / "map.csv").exists()

@@ -100,6 +100,8 @@ pub fn flag(field: RequestField) -> &'static str {
         XLim => "--xlim",
         YLim => "--ylim",
         Shard => "--shard",
+        // Positional: the part files of `merge`, as its usage line names them.
+        Parts => "PARTS",
         FromStatic => "--from-static",
         StopAtHorizon => "--stop-at-horizon",
         State => "--state",

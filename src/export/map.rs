@@ -226,6 +226,11 @@ impl DataDigest {
     }
 }
 
+/// The hint for a part whose rows or counts do not match its metadata: compute the shard again.
+pub fn rerun_shard_hint() -> crate::error::Phrase {
+    crate::phrase!["run this shard again with map ", crate::RequestField::Shard, " K/N; part files must not be edited"]
+}
+
 /// Check the data rows `body` of a map part against its metadata and the map: the row count and SHA-256
 /// written with the part, and the grid indices (ix, iy) of every row, which must be exactly the cells of the
 /// part's lines in order (`lines`); every number must be finite. Returns the parsed cells.
@@ -236,11 +241,7 @@ pub fn verify_part(
     body: &str,
     file: &str,
 ) -> Result<Vec<Cell>> {
-    let hint = crate::phrase![
-        "run this shard again with map ",
-        crate::RequestField::Shard,
-        " K/N; part files must not be edited"
-    ];
+    let hint = rerun_shard_hint();
     if m.data_sha256.is_empty() {
         return Err(Error::input(format!(
             "{file}: the part metadata has no content hash (an older junctura wrote it)"

@@ -22,26 +22,15 @@ impl Renderer for Markdown {
 
 /// A number with 6 significant digits: fixed notation for 1e-3 <= |x| < 1e5, else `1.5e-7`; `–` if not finite.
 pub fn md_num(x: f64) -> String {
-    if !x.is_finite() {
-        return "–".into();
-    }
-    if x == 0.0 {
-        return "0".into();
-    }
-    let e = x.abs().log10().floor() as i32;
-    let trim = |s: String| if s.contains('.') { s.trim_end_matches('0').trim_end_matches('.').to_string() } else { s };
-    if (-3..5).contains(&e) {
-        let s = trim(format!("{:.*}", (5 - e).clamp(0, 8) as usize, x));
-        if s == "-0" {
-            "0".into()
-        } else {
-            s
-        }
-    } else {
-        let s = format!("{x:.5e}");
-        match s.split_once('e') {
-            Some((m, k)) => format!("{}e{k}", trim(m.to_string())),
-            None => s,
+    match super::short(x) {
+        super::Short::NotFinite => "–".into(),
+        super::Short::Fixed(s) => s,
+        super::Short::Scientific(_) => {
+            let s = format!("{x:.5e}");
+            match s.split_once('e') {
+                Some((m, k)) => format!("{}e{k}", super::trim_zeros(m)),
+                None => s,
+            }
         }
     }
 }

@@ -41,6 +41,44 @@ use crate::statics::StaticsReport;
 use crate::survey::SurveyReport;
 use closed::LatexLayout;
 
+/// A number with 6 significant digits, as the LaTeX and Markdown tables print it ([`short`]).
+pub(crate) enum Short {
+    /// NaN or infinite.
+    NotFinite,
+    /// Zero or 1e-3 <= |x| < 1e5: fixed notation, trailing zeros dropped, never `-0`.
+    Fixed(String),
+    /// Otherwise: the decimal exponent, for the format's own scientific notation.
+    Scientific(i32),
+}
+
+/// The short form of `x` shared by [`latex_num`] and [`markdown::md_num`].
+pub(crate) fn short(x: f64) -> Short {
+    if !x.is_finite() {
+        return Short::NotFinite;
+    }
+    if x == 0.0 {
+        return Short::Fixed("0".into());
+    }
+    let e = x.abs().log10().floor() as i32;
+    if !(-3..5).contains(&e) {
+        return Short::Scientific(e);
+    }
+    let s = format!("{:.*}", (5 - e).clamp(0, 8) as usize, x);
+    match trim_zeros(&s) {
+        "-0" => Short::Fixed("0".into()),
+        t => Short::Fixed(t.to_string()),
+    }
+}
+
+/// `s` without the trailing zeros of its fraction (and without the point when nothing is left after it).
+pub(crate) fn trim_zeros(s: &str) -> &str {
+    if s.contains('.') {
+        s.trim_end_matches('0').trim_end_matches('.')
+    } else {
+        s
+    }
+}
+
 pub use crate::text::num;
 pub use latex::latex_num;
 
@@ -186,4 +224,33 @@ pub fn render(format: Format, item: &Item<'_>) -> crate::Result<String> {
         crate::Error::request(crate::ErrorKind::Input, crate::RequestField::Format, format, message)
             .with_hint(format!("use one of: {}", offered.join(", ")))
     })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Six significant digits (common practice for tables), both table formats' notations from one rule.
+    #[test]
+    fn short_numbers_agree_between_latex_and_markdown() {
+        // Rounded by hand to 6 significant digits (common practice; none of these is a tie).
+        for (x, fixed) in
+            [(0.0012345678, "0.00123457"), (-3.0638123456, "-3.06381"), (99999.4, "99999.4"), (2.5, "2.5")]
+        {
+            assert!(matches!(short(x), Short::Fixed(ref s) if s == fixed), "{x}");
+            assert_eq!(latex_num(x), fixed);
+            assert_eq!(markdown::md_num(x), fixed);
+        }
+        assert!(matches!(short(0.0), Short::Fixed(ref s) if s == "0"));
+        assert!(matches!(short(-0.0), Short::Fixed(ref s) if s == "0"));
+        // Outside 1e-3 <= |x| < 1e5: the decimal exponent (common practice).
+        assert!(matches!(short(123456.0), Short::Scientific(5)));
+        assert!(matches!(short(-0.000123456789), Short::Scientific(-4)));
+        assert_eq!(latex_num(123456.0), "1.23456\\times 10^{5}");
+        assert_eq!(markdown::md_num(123456.0), "1.23456e5");
+        assert!(matches!(short(f64::INFINITY), Short::NotFinite));
+        assert_eq!(trim_zeros("1.50000"), "1.5");
+        assert_eq!(trim_zeros("2.000"), "2");
+        assert_eq!(trim_zeros("100"), "100");
+    }
 }

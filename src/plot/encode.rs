@@ -53,6 +53,11 @@ fn f(v: f64) -> String {
     }
 }
 
+/// The `x`, `y`, `width` and `height` attributes of an SVG element covering the box `b`.
+fn box_attrs(b: &scene::BBox) -> String {
+    format!("x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\"", f(b.x0), f(b.y0), f(b.x1 - b.x0), f(b.y1 - b.y0))
+}
+
 fn path_d(pts: &[(f64, f64)], close: bool) -> String {
     let mut d = String::new();
     for (k, p) in pts.iter().enumerate() {
@@ -116,14 +121,7 @@ pub(crate) fn svg(sc: &Scene, provenance: &str, title: Option<&str>) -> Result<S
                 );
             }
             Item::Rect { b, fill, stroke } => {
-                let _ = write!(
-                    s,
-                    "<rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\"",
-                    f(b.x0),
-                    f(b.y0),
-                    f(b.x1 - b.x0),
-                    f(b.y1 - b.y0)
-                );
+                let _ = write!(s, "<rect {}", box_attrs(b));
                 match fill {
                     Some((c, a)) => {
                         let _ = write!(s, " fill=\"{}\"", hex(*c));
@@ -186,21 +184,15 @@ pub(crate) fn svg(sc: &Scene, provenance: &str, title: Option<&str>) -> Result<S
                 clip_id += 1;
                 let _ = writeln!(
                     s,
-                    "<defs><clipPath id=\"plot-area-{clip_id}\"><rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\"/></clipPath></defs>",
-                    f(clip.x0),
-                    f(clip.y0),
-                    f(clip.x1 - clip.x0),
-                    f(clip.y1 - clip.y0)
+                    "<defs><clipPath id=\"plot-area-{clip_id}\"><rect {}/></clipPath></defs>",
+                    box_attrs(clip)
                 );
                 let _ = writeln!(
                     s,
-                    "<image x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\" preserveAspectRatio=\"none\" \
-                     image-rendering=\"optimizeSpeed\" style=\"image-rendering:pixelated\" \
-                     clip-path=\"url(#plot-area-{clip_id})\" href=\"data:image/png;base64,{}\"/>",
-                    f(b.x0),
-                    f(b.y0),
-                    f(b.x1 - b.x0),
-                    f(b.y1 - b.y0),
+                    "<image {} preserveAspectRatio=\"none\" image-rendering=\"optimizeSpeed\" \
+                     style=\"image-rendering:pixelated\" clip-path=\"url(#plot-area-{clip_id})\" \
+                     href=\"data:image/png;base64,{}\"/>",
+                    box_attrs(b),
                     base64(png)
                 );
             }

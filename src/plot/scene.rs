@@ -218,28 +218,14 @@ fn transformed(fig: &Figure, look: &Look) -> Result<Figure> {
             " for maps"
         ]));
     }
-    let lx = |x: f64| {
-        if look.log_x {
-            if x > 0.0 {
-                x.log10()
-            } else {
-                f64::NAN
-            }
-        } else {
-            x
-        }
+    // A point on a log axis is drawn at log10 of its value; a non-positive one is not drawn (NaN).
+    let log_if = |on: bool, v: f64| match (on, v > 0.0) {
+        (false, _) => v,
+        (true, true) => v.log10(),
+        (true, false) => f64::NAN,
     };
-    let ly = |y: f64| {
-        if look.log_y {
-            if y > 0.0 {
-                y.log10()
-            } else {
-                f64::NAN
-            }
-        } else {
-            y
-        }
-    };
+    let lx = |x: f64| log_if(look.log_x, x);
+    let ly = |y: f64| log_if(look.log_y, y);
     let mut f = fig.clone();
     let range = |r: Option<(f64, f64)>, on: bool, name: &str| -> Result<Option<(f64, f64)>> {
         match r {

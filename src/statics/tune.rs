@@ -113,6 +113,14 @@ pub fn default_param_range(v: f64) -> (f64, f64) {
     (v - d, v + d)
 }
 
+/// The index of the parameter `name` solved for and its search bounds (`range`, else the default range around
+/// its value); the scenario must have a law.
+fn solved_parameter(s: &Scenario, name: &str, range: Option<(f64, f64)>) -> Result<(usize, (f64, f64))> {
+    check_eos(s)?;
+    let k = s.params.index(name).map_err(|e| e.context_phrase(crate::phrase![crate::RequestField::Solve]))?;
+    Ok((k, range.unwrap_or_else(|| default_param_range(s.params.values()[k]))))
+}
+
 /// Every value of parameter `name` in `range` for which a static shell sits at radius `a`.
 pub fn tune_at_radius(
     s: &Scenario,
@@ -121,9 +129,7 @@ pub fn tune_at_radius(
     range: Option<(f64, f64)>,
     opts: &StaticsOptions,
 ) -> Result<TuneReport> {
-    check_eos(s)?;
-    let k = s.params.index(name).map_err(|e| e.context_phrase(crate::phrase![crate::RequestField::Solve]))?;
-    let (lo, hi) = range.unwrap_or_else(|| default_param_range(s.params.values()[k]));
+    let (k, (lo, hi)) = solved_parameter(s, name, range)?;
     // Validate the radius once with the current parameters (horizon, region) for a clear message.
     Junction::new(s).static_values(a)?;
     let f = |lam: f64| eval(s, k, a, lam, false).map(|(f, _)| (f[0], f[2]));
@@ -175,9 +181,7 @@ pub fn tune_marginal(
     range: Option<(f64, f64)>,
     opts: &StaticsOptions,
 ) -> Result<TuneReport> {
-    check_eos(s)?;
-    let k = s.params.index(name).map_err(|e| e.context_phrase(crate::phrase![crate::RequestField::Solve]))?;
-    let (plo, phi) = range.unwrap_or_else(|| default_param_range(s.params.values()[k]));
+    let (k, (plo, phi)) = solved_parameter(s, name, range)?;
     let ropts = RootOptions { samples: 300, ..opts.roots };
     let radii = crate::roots::sample_points(lo, hi, 150);
     // Static solutions (a_i, lambda_ij) and V'' there.

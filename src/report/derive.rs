@@ -258,31 +258,31 @@ pub fn derive(s: &Scenario, state: State) -> Result<DeriveReport> {
                 rep.v2_slope = Some(ls.v2_slope);
                 rep.flux_term = Some(j.flux_term(&sv));
                 rep.potential_first_derivative = j.potential_taylor(&sv, Law::Linear { beta2: 0.0 }).map(|v| v[1]);
-                if let Some(eos) = &s.shell.eos {
-                    let d: num_dual::Dual64 = eos.eval_at(num_dual::Dual64::new(sigma, 1.0), s.params.values());
+                if let (Some(eos), Some((p_law, beta2))) = (&s.shell.eos, j.law_and_slope(sigma)) {
                     let v2 = j.potential_taylor(&sv, Law::Scenario).map(|v| v[2]).unwrap_or(f64::NAN);
-                    if !(d.re.is_finite() && d.eps.is_finite()) {
+                    if !(p_law.is_finite() && beta2.is_finite()) {
                         return Err(crate::Error::numerical(format!(
                             "radius {r}: the equation of state [shell] pressure = \"{}\" is not finite at sigma0 = {sigma:.6e} (P = {}, dP/dsigma = {})",
                             eos.source(),
-                            d.re,
-                            d.eps
+                            p_law,
+                            beta2
                         ))
                         .with_hint("the law is singular or undefined at this surface energy density (a division by zero, or log/sqrt of a negative number)"));
                     }
-                    let residual = p - d.re;
-                    if residual.abs() > 1e-9 * (p.abs() + d.re.abs()).max(1e-300) {
+                    let residual = p - p_law;
+                    let tol = crate::tolerances::TOL.motion.static_residual;
+                    if residual.abs() > tol * (p.abs() + p_law.abs()).max(1e-300) {
                         warnings.push(format!(
                             "the equation of state p = {} gives P(sigma0) = {:.6e} but the junction needs p0 = {p:.6e} at this radius: this is not a static radius of that law (use `junctura statics` to find them)",
                             eos.source(),
-                            d.re
+                            p_law
                         ));
                     }
                     rep.equation_of_state = Some(EosAtRadius {
                         law: eos.source().to_string(),
-                        pressure_from_law: d.re,
+                        pressure_from_law: p_law,
                         residual,
-                        beta2: d.eps,
+                        beta2,
                         potential_second_derivative: v2,
                     });
                 }

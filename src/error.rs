@@ -261,8 +261,8 @@ pub enum Problem {
     Inadmissible {
         /// The radius.
         radius: f64,
-        /// Why ([`crate::junction::admissible::Inadmissible`]).
-        reason: crate::junction::admissible::Inadmissible,
+        /// Why ([`crate::model::Inadmissible`]).
+        reason: crate::model::Inadmissible,
     },
     /// Text (a scenario or chain file, an expression in it) that does not parse.
     Parse {

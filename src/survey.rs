@@ -5,9 +5,10 @@
 //! B > 0, T-regions B < 0. The root finding and its tolerances are those of [`crate::metric::survey`].
 
 use crate::metric::{survey as survey_side, SideFns, SideSurvey};
+use crate::model::Which;
 use crate::request::RangeRequest;
 use crate::roots::RootOptions;
-use crate::scenario::{Scenario, Which};
+use crate::scenario::Scenario;
 use serde::Serialize;
 
 /// Root-finder samples across the range: fine enough to separate nearby horizons of the shipped scenarios.

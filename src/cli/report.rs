@@ -139,7 +139,7 @@ pub fn run_demo(a: DemoArgs) -> Result<()> {
         junctura::output::write_atomic(&particles.join("chain.csv"), csv.as_bytes())?;
         let series = junctura::geodesic::series::chain_series(&run, Some(&unit));
         for (name, fig) in
-            junctura::report::figures::chain_figures(&series, Some(junctura::units::PLANCK_LENGTH_M), &prov)
+            junctura::geodesic::series::chain_figures(&series, Some(junctura::units::PLANCK_LENGTH_M), &prov)
         {
             junctura::plot::write_figure(&fig, &particles, &name)?;
         }

@@ -3,7 +3,7 @@
 
 use super::dopri::{hermite, hermite_root, next_step, step, Tolerances, Vec3};
 use super::motion::{Halt, Motion};
-use crate::scenario::Which;
+use crate::model::Which;
 use serde::Serialize;
 
 /// Tolerances and limits of `evolve`, in one place.

@@ -4,7 +4,7 @@
 use super::dopri::Vec3;
 use crate::junction::potential::potential_from_y;
 use crate::junction::{admissible, phi_prime, Junction};
-use crate::scenario::Which;
+use crate::model::Which;
 use crate::tolerances::TOL;
 use num_dual::Dual64;
 

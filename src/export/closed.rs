@@ -6,7 +6,8 @@ use crate::algebra::display::Disp;
 use crate::algebra::render::{self, Names};
 use crate::algebra::{RatFun, Shower};
 use crate::junction::closed::{ClosedForms, ClosedState};
-use crate::scenario::{ShellKind, Symbols};
+use crate::model::ShellKind;
+use crate::scenario::Symbols;
 use serde::Serialize;
 
 /// Width of one journal column (8.5 cm) in TeX points.

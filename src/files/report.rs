@@ -2,13 +2,14 @@
 
 use crate::error::{Error, Result};
 use crate::export;
+use crate::model::{ShellKind, Which};
 use crate::output::{ensure_dir, write_atomic};
 use crate::plot::{write_figure, write_panels, FigureOptions, StyleName};
 use crate::report::bundle::plot_range;
 use crate::report::derive::{derive, State};
 use crate::report::figures;
 use crate::scan::{evaluate_lines, Axis, MapSpec};
-use crate::scenario::{Scenario, ShellKind, Which};
+use crate::scenario::Scenario;
 use crate::statics::sweep::sweep;
 use crate::statics::{find_static_radii, StaticsOptions};
 use std::path::{Path, PathBuf};

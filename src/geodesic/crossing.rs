@@ -20,9 +20,10 @@
 use super::radial::Particle;
 use crate::error::{Error, ErrorKind, RequestField, Result};
 use crate::metric::SideFns;
+use crate::model::ShellKind;
 use crate::model::SideModel;
 use crate::phrase;
-use crate::scenario::{Scenario, ShellKind};
+use crate::scenario::Scenario;
 use serde::Serialize;
 
 /// The particle's radial direction on the minus side.

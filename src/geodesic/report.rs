@@ -11,9 +11,10 @@ use super::radial::{Particle, Radial};
 use super::series::{chain_series, Series};
 use crate::error::{Error, ErrorKind, RequestField, Result};
 use crate::metric::{default_range, SideFns};
+use crate::model::{Keep, Which};
 use crate::phrase;
 use crate::roots::RootOptions;
-use crate::scenario::{Keep, Scenario, Which};
+use crate::scenario::Scenario;
 use crate::units::{parse_length, parse_mass, Length, MassUnit, PLANCK_LENGTH_M};
 use serde::Serialize;
 
@@ -275,14 +276,14 @@ pub fn chain(chain: &Chain, req: &ChainRequest) -> Result<ChainReport> {
 }
 
 impl ChainReport {
-    /// The figures of the run that have data ([`crate::report::figures::chain_figures`]; the threshold in
+    /// The figures of the run that have data ([`chain_figures`](super::series::chain_figures); the threshold in
     /// metres when a mass unit is given, like the distances).
     pub fn figures(&self) -> Vec<(String, crate::plot::Figure)> {
         let threshold = match (self.run.threshold, self.unit.as_ref()) {
             (Some(t), Some(u)) => Some(u.to_m(t)),
             (t, _) => t,
         };
-        crate::report::figures::chain_figures(&self.series, threshold, &self.provenance)
+        super::series::chain_figures(&self.series, threshold, &self.provenance)
             .into_iter()
             .filter(|(_, fig)| fig.series.iter().any(|s| s.points.iter().any(|p| p.1.is_finite())))
             .collect()

@@ -5,6 +5,7 @@
 //! plotted (log-scale y axes for the distances), so wiring it to a plot needs no physics.
 
 use super::iterate::ChainRun;
+use crate::plot::{self, Figure, LineStyle, RefLine};
 use crate::units::MassUnit;
 use serde::Serialize;
 
@@ -54,4 +55,56 @@ pub fn chain_series(run: &ChainRun, unit: Option<&MassUnit>) -> Vec<Series> {
         mk("areal_distance", format!("r_max - r_h [{u}]"), true, areal),
         mk("proper_distance", format!("proper distance from horizon [{u}]"), true, proper),
     ]
+}
+
+/// Figures of a chain run against crossing number: the apex's areal and proper distance to the horizon
+/// (log10, with the threshold drawn), and the Killing energy. Built from [`chain_series`].
+pub fn chain_figures(series: &[Series], threshold: Option<f64>, provenance: &str) -> Vec<(String, Figure)> {
+    let log_pts = |s: &Series| -> Vec<(f64, f64)> {
+        s.x.iter().zip(&s.y).map(|(&x, &y)| (x, if y > 0.0 { y.log10() } else { f64::NAN })).collect()
+    };
+    let mut out = Vec::new();
+    let dist: Vec<&Series> = series.iter().filter(|s| s.name.ends_with("distance")).collect();
+    if let Some(first) = dist.first() {
+        let mut fig = Figure {
+            x_label: first.x_label.clone(),
+            y_label: format!(
+                "log₁₀ distance to horizon [{}]",
+                first.y_label.rsplit('[').next().unwrap_or("]").trim_end_matches(']')
+            ),
+            provenance: provenance.to_string(),
+            ..Figure::default()
+        };
+        for (i, s) in dist.iter().enumerate() {
+            let label = if s.name.starts_with("areal") { "areal: r_max − r_h" } else { "proper distance" };
+            fig.series.push(plot::Series {
+                label: label.into(),
+                points: log_pts(s),
+                style: LineStyle::cycle(i),
+                colour: i * 3,
+            });
+        }
+        if let Some(t) = threshold.filter(|t| *t > 0.0) {
+            fig.ref_lines.push(RefLine::horizontal(t.log10(), "threshold"));
+        }
+        out.push(("chain_distance".to_string(), fig));
+    }
+    if let Some(e) = series.iter().find(|s| s.name == "energy") {
+        out.push((
+            "chain_energy".to_string(),
+            Figure {
+                x_label: e.x_label.clone(),
+                y_label: "log₁₀ E (Killing energy per unit mass)".into(),
+                series: vec![plot::Series {
+                    label: "E after each crossing".into(),
+                    points: log_pts(e),
+                    style: LineStyle::Solid,
+                    colour: 0,
+                }],
+                provenance: provenance.to_string(),
+                ..Figure::default()
+            },
+        ));
+    }
+    out
 }

@@ -18,7 +18,8 @@
 
 use crate::algebra::{Alg, AtomKind, RatFun, Q};
 use crate::error::{Error, Result};
-use crate::scenario::{Scenario, ShellKind, Which};
+use crate::model::{ShellKind, Which};
+use crate::scenario::Scenario;
 use num_bigint::BigInt;
 
 /// Which shell state the closed forms describe.

@@ -3,7 +3,7 @@
 
 use super::Junction;
 use crate::expr::Scalar;
-use crate::scenario::ShellKind;
+use crate::model::ShellKind;
 use serde::Serialize;
 
 /// One formula: a name, plain text and LaTeX (amsmath, without surrounding math delimiters).

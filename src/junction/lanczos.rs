@@ -4,7 +4,7 @@ use super::{Jet, Junction};
 use crate::error::{Error, Result};
 use crate::expr::Scalar;
 use crate::model::Shape;
-use crate::scenario::{ShellKind, Which};
+use crate::model::{ShellKind, Which};
 
 /// Mixed components of the extrinsic curvatures and of the surface stress tensor at one shell state.
 #[derive(Debug, Clone, Copy)]

@@ -29,7 +29,8 @@ pub mod stability;
 use crate::error::{Error, Result};
 use crate::expr::Scalar;
 use crate::model::{EquationOfState, MetricSide, Model, Shape};
-use crate::scenario::{Keep, Scenario, ShellKind, Which};
+use crate::model::{Keep, ShellKind, Which};
+use crate::scenario::Scenario;
 use num_dual::Dual3;
 
 pub use conditions::EnergyConditions;

@@ -50,8 +50,8 @@ impl<'a, T: Scalar> Junction<'a, T> {
 
     /// V(R) for a timelike shell with surface energy density sigma at R.
     pub fn potential_sigma(&self, r: T, sigma: T) -> T {
-        let bm = self.jet(crate::scenario::Which::Minus, r).b[0];
-        let bp = self.jet(crate::scenario::Which::Plus, r).b[0];
+        let bm = self.jet(crate::model::Which::Minus, r).b[0];
+        let bp = self.jet(crate::model::Which::Plus, r).b[0];
         potential_from_y(self.eps, bm, bp, -self.kappa(r, sigma))
     }
 
@@ -219,7 +219,7 @@ impl<'a> Junction<'a, f64> {
         radii: &[f64],
         through_horizons: bool,
     ) -> Vec<f64> {
-        use crate::scenario::Which;
+        use crate::model::Which;
         let (a0, y0, sigma0, p0) = start;
         let n_ang = self.n_ang();
         let pi8 = 8.0 * std::f64::consts::PI;

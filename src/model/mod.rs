@@ -12,11 +12,11 @@
 
 mod law;
 mod side;
+mod terms;
 
 pub use law::{Eos, EquationOfState, ExprLaw};
 pub use side::{ExprSide, Metric, MetricSide};
-
-use crate::scenario::{Keep, ShellKind, Which};
+pub use terms::{Inadmissible, Keep, ShellKind, Which};
 
 /// One side of the shell as the physics sees it.
 #[derive(Debug, Clone)]

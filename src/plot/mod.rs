@@ -55,6 +55,8 @@ mod scene;
 mod style;
 #[cfg(feature = "figures")]
 mod text;
+#[cfg(feature = "figures")]
+mod window;
 
 pub use draw::*;
 pub use geom::contour_segments;
@@ -388,6 +390,7 @@ pub struct CategoryMap {
 
 #[cfg(all(test, feature = "figures"))]
 mod tests {
+    use super::window::plot_window;
     use super::*;
     use crate::error::ErrorKind;
     use std::path::Path;

@@ -3,10 +3,10 @@
 //! [`Layout`], so that placement can avoid collisions and tests can check them. Pure geometry: the encoders
 //! turn a [`Scene`] into SVG, PDF or PNG.
 
-use super::draw::plot_window;
 use super::geom::{self, Window};
 use super::style::{self, Style};
 use super::text;
+use super::window::plot_window;
 use super::{Band, Figure, LegendPos, LineStyle, Look, Orientation};
 use crate::error::{Error, Result};
 

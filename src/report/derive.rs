@@ -6,7 +6,8 @@ use crate::junction::conditions::shell_mass;
 use crate::junction::formula::Formula;
 use crate::junction::potential::Law;
 use crate::junction::{EnergyConditions, Junction, StableWhen};
-use crate::scenario::{Scenario, ShellKind};
+use crate::model::ShellKind;
+use crate::scenario::Scenario;
 use serde::Serialize;
 
 /// The shell state asked for.
@@ -164,10 +165,10 @@ pub fn derive(s: &Scenario, state: State) -> Result<DeriveReport> {
         let sv = j.static_values(r)?;
         (sv.stress, sv.jets)
     } else {
-        let jm = j.jet(crate::scenario::Which::Minus, r);
-        let jp = j.jet(crate::scenario::Which::Plus, r);
-        j.check_finite_jet(crate::scenario::Which::Minus, r, &jm, 1)?;
-        j.check_finite_jet(crate::scenario::Which::Plus, r, &jp, 1)?;
+        let jm = j.jet(crate::model::Which::Minus, r);
+        let jp = j.jet(crate::model::Which::Plus, r);
+        j.check_finite_jet(crate::model::Which::Minus, r, &jm, 1)?;
+        j.check_finite_jet(crate::model::Which::Plus, r, &jp, 1)?;
         (j.stress_with_jets(&jm, &jp, r, state.velocity, state.acceleration)?, [jm, jp])
     };
     // Results near a horizon are still computed, and flagged as ill-conditioned.

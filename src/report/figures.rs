@@ -67,7 +67,7 @@ pub struct Overlays {
 /// The overlays of scenario `s` over radii [lo, hi] (static radii searched in [`crate::metric::default_range`],
 /// the range `statics` uses).
 pub fn overlays(s: &Scenario, lo: f64, hi: f64) -> Overlays {
-    use crate::scenario::Which;
+    use crate::model::Which;
     let mut ov = Overlays::default();
     let j = Junction::new(s);
     if s.shell.eos.is_some() {
@@ -731,60 +731,4 @@ pub fn family_figures(
         (format!("family_{param}_sigma"), sigma),
         (format!("family_{param}_pressure"), pressure),
     ])
-}
-
-/// Figures of a chain run against crossing number: the apex's areal and proper distance to the horizon
-/// (log10, with the threshold drawn), and the Killing energy. Built from `geodesic::series::chain_series`.
-pub fn chain_figures(
-    series: &[crate::geodesic::series::Series],
-    threshold: Option<f64>,
-    provenance: &str,
-) -> Vec<(String, Figure)> {
-    let log_pts = |s: &crate::geodesic::series::Series| -> Vec<(f64, f64)> {
-        s.x.iter().zip(&s.y).map(|(&x, &y)| (x, if y > 0.0 { y.log10() } else { f64::NAN })).collect()
-    };
-    let mut out = Vec::new();
-    let dist: Vec<&crate::geodesic::series::Series> = series.iter().filter(|s| s.name.ends_with("distance")).collect();
-    if let Some(first) = dist.first() {
-        let mut fig = Figure {
-            x_label: first.x_label.clone(),
-            y_label: format!(
-                "log₁₀ distance to horizon [{}]",
-                first.y_label.rsplit('[').next().unwrap_or("]").trim_end_matches(']')
-            ),
-            provenance: provenance.to_string(),
-            ..Figure::default()
-        };
-        for (i, s) in dist.iter().enumerate() {
-            let label = if s.name.starts_with("areal") { "areal: r_max − r_h" } else { "proper distance" };
-            fig.series.push(Series {
-                label: label.into(),
-                points: log_pts(s),
-                style: LineStyle::cycle(i),
-                colour: i * 3,
-            });
-        }
-        if let Some(t) = threshold.filter(|t| *t > 0.0) {
-            fig.ref_lines.push(RefLine::horizontal(t.log10(), "threshold"));
-        }
-        out.push(("chain_distance".to_string(), fig));
-    }
-    if let Some(e) = series.iter().find(|s| s.name == "energy") {
-        out.push((
-            "chain_energy".to_string(),
-            Figure {
-                x_label: e.x_label.clone(),
-                y_label: "log₁₀ E (Killing energy per unit mass)".into(),
-                series: vec![Series {
-                    label: "E after each crossing".into(),
-                    points: log_pts(e),
-                    style: LineStyle::Solid,
-                    colour: 0,
-                }],
-                provenance: provenance.to_string(),
-                ..Figure::default()
-            },
-        ));
-    }
-    out
 }

@@ -74,7 +74,7 @@ fn shipped() -> Vec<(String, Scenario)> {
 fn fast_path_matches_generic_on_every_shipped_timelike_scenario() {
     let mut checked = 0;
     for (name, s) in shipped() {
-        if s.shell.kind != crate::scenario::ShellKind::Timelike {
+        if s.shell.kind != crate::model::ShellKind::Timelike {
             continue; // maps (and hence this path) are for timelike shells only
         }
         let mut found = 0;

@@ -177,7 +177,7 @@ impl MapSpec {
                 Error::input(format!("the two map axes are both '{}'", x.name)).with_hint("choose two different axes")
             );
         }
-        if s.shell.kind != crate::scenario::ShellKind::Timelike {
+        if s.shell.kind != crate::model::ShellKind::Timelike {
             return Err(Error::input("maps of static shells need a timelike shell")
                 .with_hint("set [shell] kind = \"timelike\""));
         }

@@ -26,91 +26,10 @@ pub use symbols::{latex_to_unicode, Symbols};
 use crate::error::{Error, Result};
 use crate::expr::{Expr, Func, ParseError};
 use crate::model::{Eos, ExprLaw, ExprSide, Metric, Model, SideModel};
+pub use crate::model::{Keep, ShellKind, Which};
 use sha2::{Digest, Sha256};
-use std::fmt;
+
 use std::path::{Path, PathBuf};
-
-/// Which side of the shell.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Which {
-    /// The side the normal points away from.
-    Minus,
-    /// The side the normal points into.
-    Plus,
-}
-
-impl Which {
-    /// `minus` or `plus`.
-    pub fn name(self) -> &'static str {
-        match self {
-            Which::Minus => "minus",
-            Which::Plus => "plus",
-        }
-    }
-}
-
-impl fmt::Display for Which {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        f.write_str(self.name())
-    }
-}
-
-/// Which part of a side's spacetime is kept.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Keep {
-    /// Keeps r < R (R-region).
-    Inner,
-    /// Keeps r > R (R-region).
-    Outer,
-    /// A T-region in which r decreases toward the future.
-    BlackHole,
-    /// A T-region in which r increases toward the future.
-    WhiteHole,
-}
-
-impl Keep {
-    /// The word used in scenario files.
-    pub fn name(self) -> &'static str {
-        match self {
-            Keep::Inner => "inner",
-            Keep::Outer => "outer",
-            Keep::BlackHole => "black-hole",
-            Keep::WhiteHole => "white-hole",
-        }
-    }
-
-    /// True for `inner`/`outer` (the shell sits where B > 0).
-    pub fn is_r_region(self) -> bool {
-        matches!(self, Keep::Inner | Keep::Outer)
-    }
-}
-
-/// Timelike (a moving or static membrane) or spacelike (a transition surface) shell.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum ShellKind {
-    /// Unit normal spacelike, n.n = +1.
-    Timelike,
-    /// Unit normal timelike, n.n = -1.
-    Spacelike,
-}
-
-impl ShellKind {
-    /// eps = n.n.
-    pub fn eps(self) -> f64 {
-        match self {
-            ShellKind::Timelike => 1.0,
-            ShellKind::Spacelike => -1.0,
-        }
-    }
-
-    /// The word used in scenario files.
-    pub fn name(self) -> &'static str {
-        match self {
-            ShellKind::Timelike => "timelike",
-            ShellKind::Spacelike => "spacelike",
-        }
-    }
-}
 
 /// One side: its metric functions, which part is kept, and the resulting sign of dr along the normal.
 #[derive(Debug, Clone)]

@@ -20,9 +20,9 @@ use super::{
 };
 use crate::junction::Junction;
 use crate::metric::SideFns;
+use crate::model::Which;
 use crate::model::{MetricSide, Model};
 use crate::roots::{refine_from, sample_points};
-use crate::scenario::Which;
 use num_dual::Dual64;
 
 /// Samples over the whole range for horizons, and over each searched interval for static radii.

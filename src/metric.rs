@@ -137,7 +137,8 @@ pub struct SideSurvey {
 /// Horizons of a side in [lo, hi]: every root of B, simple or degenerate, and the poles of B (sign changes
 /// through infinity). Roots come from the sampled search of `roots::find_roots` (sign changes, and minima of |B|
 /// where B and B' vanish together: double roots); when B is rational in r, the real roots of its numerator from
-/// the companion matrix (`rational`, for a side with expressions) replace the sampled ones near them, giving degenerate horizons to rounding.
+/// the companion matrix (`rational`, for a side with expressions) replace the sampled ones near them, giving
+/// degenerate horizons to rounding.
 pub fn horizons<M: MetricSide>(fns: &SideFns<M>, lo: f64, hi: f64, opts: &RootOptions) -> (Vec<Horizon>, Vec<f64>) {
     let (mut hs, poles) = sampled_horizons(fns, lo, hi, opts);
     if let Some((num, den)) = fns.b_expression().and_then(|b| crate::rational::rational(b, fns.params)) {

@@ -58,6 +58,9 @@ pub struct StaticsTolerances {
     pub identically_static: f64,
     /// Relative width to which a pole predicted from a neighbouring map cell is bracketed.
     pub pole_width: f64,
+    /// |p0 - P(sigma0)| <= law_residual (|p0| + |sigma0|): the law holds at the radius, which is a static radius
+    /// of it (`statics::law_holds`; evolve's static starts, derive's warning).
+    pub law_residual: f64,
 }
 
 /// Root-finding thresholds.
@@ -74,8 +77,6 @@ pub struct RootTolerances {
 /// Shell-motion thresholds.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
 pub struct MotionTolerances {
-    /// |p0 - P(sigma0)| / (|p0| + |sigma0|) below this: the start radius is static.
-    pub static_residual: f64,
     /// Relative distance within which a requested radius that is not static moves to the nearby static radius.
     pub snap_to_static: f64,
     /// |V(R, sigma)| below this, relative to 1 + |B_minus| + |B_plus|: a turning point.
@@ -87,9 +88,14 @@ impl Tolerances {
     pub const DEFAULT: Tolerances = Tolerances {
         horizon: HorizonTolerances { on_horizon: 1e-9, near_warning: 1e-6, root_cluster: 1e-5 },
         stability: StabilityTolerances { marginal: 1e-8, beta2_slope: 1e-12 },
-        statics: StaticsTolerances { horizon_margin: 1e-10, identically_static: 1e-10, pole_width: 1e-7 },
+        statics: StaticsTolerances {
+            horizon_margin: 1e-10,
+            identically_static: 1e-10,
+            pole_width: 1e-7,
+            law_residual: 1e-9,
+        },
         roots: RootTolerances { x_rel: 1e-14, pole_ratio: 1e3, double_root: 1e-9 },
-        motion: MotionTolerances { static_residual: 1e-9, snap_to_static: 1e-3, turning_point: 1e-12 },
+        motion: MotionTolerances { snap_to_static: 1e-3, turning_point: 1e-12 },
     };
 }
 

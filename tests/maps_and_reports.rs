@@ -185,6 +185,29 @@ fn map_calls_the_neutral_extremal_dust_family_marginal_everywhere() {
     assert_eq!(v["marginal_cells"], 60, "{out}");
 }
 
+/// derive's "not a static radius of that law" warning follows the one rule `statics::law_holds`,
+/// |p0 - P(sigma0)| <= 1e-9 (|p0| + |sigma0|). The extremal charged dust shell is static at every radius (common
+/// practice; p0 there is rounding noise of order 1e-18, P = 0): no warning. Regression: derive scaled the
+/// residual by |p0| + |P(sigma0)| alone, which is rounding noise itself for dust, and called those radii not
+/// static. The Schwarzschild wormhole with p = w sigma, w = -0.75, is static only at a0 = m (1 + 4w)/(1 + 2w)
+/// = 4 (Poisson & Visser 1995, static sigma0 and p0): no warning there, a warning at a = 5.
+#[test]
+fn derive_warns_exactly_where_the_law_does_not_hold() {
+    use junctura::report::derive::{derive, State};
+    use junctura::scenario::Scenario;
+    let warned = |file: &str, r: f64| {
+        let s = Scenario::load(&root().join(file)).unwrap();
+        let d = derive(&s, State::at_rest(r)).unwrap();
+        d.warnings.iter().any(|w| w.contains("not a static radius of that law"))
+    };
+    for r in [1.7, 2.5, 3.3, 6.0, 40.0] {
+        assert!(!warned("scenarios/extremal-charged-dust.toml", r), "dust at r = {r}");
+    }
+    assert!(!warned("scenarios/schwarzschild-wormhole-linear.toml", 4.0));
+    assert!(warned("scenarios/schwarzschild-wormhole-linear.toml", 5.0));
+    assert!(warned("scenarios/schwarzschild-wormhole-linear.toml", 4.0 * (1.0 + 1e-6)));
+}
+
 /// Shards written by the library and merged by the library: the merged counts equal those of the whole map
 /// computed at once without files (`scan::summarize_lines`, the independent path), for a (radius, parameter)
 /// map and a map over two parameters; the merged files are the map's.

@@ -144,7 +144,7 @@ impl<'j, 'a> Motion<'j, 'a> {
         let dsigma_dr = -n_ang * (sigma + p) / r + n_ang * flux / (pi8 * r);
         let dy_dr = -(pi8 / n_ang) * (sigma + r * dsigma_dr);
         let v = potential_from_y(
-            self.j.eps,
+            self.j.shape.eps,
             Dual64::new(jm.b[0], jm.b[1]),
             Dual64::new(jp.b[0], jp.b[1]),
             Dual64::new(yy, dy_dr),

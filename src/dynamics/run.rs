@@ -10,11 +10,10 @@ use crate::junction::potential::Law;
 use crate::junction::stability::marginal_scale;
 use crate::junction::{admissible, Junction};
 use crate::metric::RegionKind;
-use crate::model::ShellKind;
-use crate::model::Which;
+use crate::model::{ShellKind, Which};
 use crate::phrase;
 use crate::scenario::Scenario;
-use crate::statics::{find_static_radii, residual, StaticsOptions};
+use crate::statics::{find_static_radii, law_holds, residual, StaticsOptions};
 use crate::tolerances::TOL;
 use rayon::prelude::*;
 use serde::Serialize;
@@ -187,8 +186,7 @@ pub fn static_start(s: &Scenario, radius: f64, notes: &mut Vec<String>) -> Resul
     ];
     let static_ok = |a: f64| -> Option<f64> {
         let (f, sv) = residual(&j, a)?;
-        let scale = sv.stress.pressure().abs() + sv.stress.sigma().abs();
-        (f.abs() <= TOL.motion.static_residual * scale.max(f64::MIN_POSITIVE)).then_some(f.abs())
+        law_holds(f, sv.stress.sigma(), sv.stress.pressure()).then_some(f.abs())
     };
     if static_ok(radius).is_some() {
         return Ok(radius);

@@ -20,8 +20,7 @@
 use super::radial::Particle;
 use crate::error::{Error, ErrorKind, RequestField, Result};
 use crate::metric::SideFns;
-use crate::model::ShellKind;
-use crate::model::SideModel;
+use crate::model::{ShellKind, SideModel};
 use crate::phrase;
 use crate::scenario::Scenario;
 use serde::Serialize;

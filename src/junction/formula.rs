@@ -87,15 +87,15 @@ impl<'a, T: Scalar> Junction<'a, T> {
     /// The formulas for this junction's shell kind, orientation and dimension.
     pub fn formulas(&self, a_equals_b: bool) -> Vec<Formula> {
         let n = self.dimension - 2;
-        let (np, nm) = (self.nu_plus, self.nu_minus);
-        let eps = self.eps;
-        let (s, sdot, w) = match self.kind {
+        let (np, nm) = (self.shape.nu[1], self.shape.nu[0]);
+        let eps = self.shape.eps;
+        let (s, sdot, w) = match self.shape.kind {
             ShellKind::Timelike => ("tau", "\\dot{R}", "Rdot^2 + B"),
             ShellKind::Spacelike => ("l", "R'", "R'^2 - B"),
         };
-        let sdot_t = if self.kind == ShellKind::Timelike { "Rdot" } else { "R'" };
-        let sddot_t = if self.kind == ShellKind::Timelike { "Rddot" } else { "R''" };
-        let sddot_l = if self.kind == ShellKind::Timelike { "\\ddot{R}" } else { "R''" };
+        let sdot_t = if self.shape.kind == ShellKind::Timelike { "Rdot" } else { "R'" };
+        let sddot_t = if self.shape.kind == ShellKind::Timelike { "Rddot" } else { "R''" };
+        let sddot_l = if self.shape.kind == ShellKind::Timelike { "\\ddot{R}" } else { "R''" };
         let eb = if eps > 0.0 { "+" } else { "-" };
         let mut out = Vec::new();
         out.push(f(
@@ -120,7 +120,7 @@ impl<'a, T: Scalar> Junction<'a, T> {
             format!("[K^{s}_{s}] = {ktext}"),
             format!("\\left[K^{{{s}}}{{}}_{{{s}}}\\right]={klatex}", s = if s == "tau" { "\\tau" } else { "l" }),
         ));
-        match self.kind {
+        match self.shape.kind {
             ShellKind::Timelike => {
                 out.push(f(
                     "sigma",

@@ -3,8 +3,7 @@
 use super::{Jet, Junction};
 use crate::error::{Error, Result};
 use crate::expr::Scalar;
-use crate::model::Shape;
-use crate::model::{ShellKind, Which};
+use crate::model::{Shape, ShellKind, Which};
 
 /// Mixed components of the extrinsic curvatures and of the surface stress tensor at one shell state.
 #[derive(Debug, Clone, Copy)]
@@ -118,7 +117,7 @@ impl<'a, T: Scalar> Junction<'a, T> {
     /// Returns an error where W_i^2 = Rdot^2 + eps B_i <= 0 (no such shell state exists on that side).
     pub fn stress_with_jets(&self, jm: &Jet<T>, jp: &Jet<T>, r: T, rdot: T, rddot: T) -> Result<Stress<T>> {
         stress_of(&self.shape, [jm, jp], r, rdot, rddot).map_err(|NoState { side, w2 }| {
-            let what = match self.kind {
+            let what = match self.shape.kind {
                 ShellKind::Timelike => "Rdot^2 + B",
                 ShellKind::Spacelike => "(dR/dl)^2 - B",
             };

@@ -28,8 +28,7 @@ pub mod stability;
 
 use crate::error::{Error, Result};
 use crate::expr::Scalar;
-use crate::model::{EquationOfState, MetricSide, Model, Shape};
-use crate::model::{Keep, ShellKind, Which};
+use crate::model::{EquationOfState, MetricSide, Model, Shape, Which};
 use crate::scenario::Scenario;
 use num_dual::Dual3;
 
@@ -67,18 +66,6 @@ pub fn redshift_gradient<U: Scalar>(a: U, a1: U, b: U, b1: U) -> U {
 pub struct Junction<'a, T: Scalar = f64> {
     /// Spacetime dimension D.
     pub dimension: u32,
-    /// Timelike or spacelike shell.
-    pub kind: ShellKind,
-    /// eps = n.n (+1 timelike, -1 spacelike).
-    pub eps: f64,
-    /// Sign of n^r on the minus side.
-    pub nu_minus: f64,
-    /// Sign of n^r on the plus side.
-    pub nu_plus: f64,
-    /// Which part the minus side keeps.
-    pub keep_minus: Keep,
-    /// Which part the plus side keeps.
-    pub keep_plus: Keep,
     /// The geometry the formulas read (kind, eps, D - 2, normal signs, kept parts; `Model::shape`).
     pub shape: Shape,
     /// The model: both sides' metric functions and the equation of state.
@@ -108,23 +95,12 @@ impl<'a> Junction<'a, f64> {
 impl<'a, T: Scalar> Junction<'a, T> {
     /// The junction of a model with the given parameter values (of any number type).
     pub fn with_params(model: &'a Model, params: Vec<T>) -> Junction<'a, T> {
-        Junction {
-            dimension: model.dimension,
-            kind: model.kind,
-            eps: model.kind.eps(),
-            nu_minus: model.minus.normal_sign,
-            nu_plus: model.plus.normal_sign,
-            keep_minus: model.minus.keep,
-            keep_plus: model.plus.keep,
-            shape: model.shape(),
-            model,
-            params,
-        }
+        Junction { dimension: model.dimension, shape: model.shape(), model, params }
     }
 
     /// (D - 2) as a float: the number of angular directions on the shell.
     pub fn n_ang(&self) -> f64 {
-        f64::from(self.dimension - 2)
+        self.shape.n_ang
     }
 
     /// A, B and three derivatives of side `which` at radius `r`.
@@ -184,7 +160,7 @@ impl<'a, T: Scalar> Junction<'a, T> {
             self.check_finite_jet(which, a, jet, 2)?;
         }
         let re = |j: &Jet<T>| Jet { a: j.a.map(|x| x.re()), b: j.b.map(|x| x.re()) };
-        admissible::static_site(self.kind, [self.keep_minus, self.keep_plus], a, [&re(jm), &re(jp)])
+        admissible::static_site(self.shape.kind, self.shape.keep, a, [&re(jm), &re(jp)])
             .map_err(|why| admissible_error(a, why))
     }
 }

@@ -52,7 +52,7 @@ impl<'a, T: Scalar> Junction<'a, T> {
     pub fn potential_sigma(&self, r: T, sigma: T) -> T {
         let bm = self.jet(crate::model::Which::Minus, r).b[0];
         let bp = self.jet(crate::model::Which::Plus, r).b[0];
-        potential_from_y(self.eps, bm, bp, -self.kappa(r, sigma))
+        potential_from_y(self.shape.eps, bm, bp, -self.kappa(r, sigma))
     }
 
     /// The flux term Xi = (D-2)(X_plus Phi_plus' - X_minus Phi_minus')/(8 pi R) of the conservation law
@@ -243,8 +243,8 @@ impl<'a> Junction<'a, f64> {
                 Law::Scenario => self.eos_at(sigma, |t| t)?,
             };
             let db = jp.b[0] - jm.b[0];
-            let xp = 0.5 * (y + db * self.eps / y);
-            let xm = 0.5 * (db * self.eps / y - y);
+            let xp = 0.5 * (y + db * self.shape.eps / y);
+            let xm = 0.5 * (db * self.shape.eps / y - y);
             let v = pi8 * p - (xp * phi(&jp) - xm * phi(&jm)) - (n_ang - 1.0) * y / r;
             v.is_finite().then_some(v)
         };
@@ -281,7 +281,7 @@ impl<'a> Junction<'a, f64> {
                 if let Some(yy) = y {
                     let bm = self.jet(Which::Minus, r).b[0];
                     let bp = self.jet(Which::Plus, r).b[0];
-                    out[i] = potential_from_y(self.eps, bm, bp, yy);
+                    out[i] = potential_from_y(self.shape.eps, bm, bp, yy);
                 }
             }
         }

@@ -132,7 +132,7 @@ keep = "outer"
             let expect = if a > 3.0 { StableWhen::Beta2Below } else { StableWhen::Beta2Above };
             assert_eq!(ls.stable_when, expect, "a = {a}");
             // Static solution: V(a) = V'(a) = 0 (for the law through the static values).
-            let v = j.potential_taylor(&sv, super::super::potential::Law::Linear { beta2: 0.3 }).unwrap();
+            let v = j.potential_taylor(&sv, crate::junction::potential::Law::Linear { beta2: 0.3 }).unwrap();
             assert!(v[0].abs() < 1e-14 && v[1].abs() < 1e-13, "{v:?}");
         }
     }

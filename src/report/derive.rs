@@ -195,7 +195,7 @@ pub fn derive(s: &Scenario, state: State) -> Result<DeriveReport> {
         b_expr: side.b.source().to_string(),
     };
     let y = stress.n_r[1] - stress.n_r[0];
-    let potential = crate::junction::potential::potential_from_y(j.eps, jets[0].b[0], jets[1].b[0], y);
+    let potential = crate::junction::potential::potential_from_y(j.shape.eps, jets[0].b[0], jets[1].b[0], y);
     let a_equals_b = !s.minus.b_given && !s.plus.b_given;
     let mut rep = DeriveReport {
         scenario: s.name.clone(),
@@ -271,8 +271,7 @@ pub fn derive(s: &Scenario, state: State) -> Result<DeriveReport> {
                         .with_hint("the law is singular or undefined at this surface energy density (a division by zero, or log/sqrt of a negative number)"));
                     }
                     let residual = p - p_law;
-                    let tol = crate::tolerances::TOL.motion.static_residual;
-                    if residual.abs() > tol * (p.abs() + p_law.abs()).max(1e-300) {
+                    if !crate::statics::law_holds(residual, sigma, p) {
                         warnings.push(format!(
                             "the equation of state p = {} gives P(sigma0) = {:.6e} but the junction needs p0 = {p:.6e} at this radius: this is not a static radius of that law (use `junctura statics` to find them)",
                             eos.source(),

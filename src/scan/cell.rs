@@ -5,8 +5,7 @@ use super::fast::{static_coefficients, FastJunction, LineScratch, StaticCoeffici
 use super::grid::{AxisKind, Beta2Source, MapSpec};
 use crate::error::Result;
 use crate::junction::{EnergyConditions, Junction};
-use crate::model::Model;
-use crate::model::Which;
+use crate::model::{Model, Which};
 use crate::scenario::Scenario;
 use crate::statics::continuation::continue_search;
 use crate::statics::{search, Stability, StaticSearch, StaticsOptions};

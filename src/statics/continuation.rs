@@ -10,9 +10,9 @@
 //! per side, the same number of static radii and of poles in each window between cuts, no radius double or
 //! within 1e-6 of a horizon, and no sample where the static condition holds identically. Anything else returns
 //! `None`, and the caller runs the full search; so does every model with a side whose B differs from A (its
-//! zeros of A off a horizon cut the range and are not continued). Structure that appears between two coarse samples and nowhere
-//! else (a pair of static radii closer than the coarse spacing, born between two neighbouring cells) is found once
-//! it has grown to the spacing, or at the next full search (the first cell of every line).
+//! zeros of A off a horizon cut the range and are not continued). Structure that appears between two coarse
+//! samples and nowhere else (a pair of static radii closer than the coarse spacing, born between two neighbouring
+//! cells) is found once it has grown to the spacing, or at the next full search (the first cell of every line).
 
 use super::{
     classify, intervals_between, is_rounding, radius_notes, residual_with_jets, Cut, CutKind, StaticSearch,
@@ -20,8 +20,7 @@ use super::{
 };
 use crate::junction::Junction;
 use crate::metric::SideFns;
-use crate::model::Which;
-use crate::model::{MetricSide, Model};
+use crate::model::{MetricSide, Model, Which};
 use crate::roots::{refine_from, sample_points};
 use num_dual::Dual64;
 

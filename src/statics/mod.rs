@@ -14,8 +14,7 @@ use crate::expr::Scalar;
 use crate::junction::potential::Law;
 use crate::junction::{admissible, Jet, Junction, StaticValues};
 use crate::metric::{horizons, SideFns};
-use crate::model::Model;
-use crate::model::{ShellKind, Which};
+use crate::model::{Model, ShellKind, Which};
 use crate::roots::{find_roots, RootKind, RootOptions};
 use crate::scenario::Scenario;
 use crate::tolerances::TOL;
@@ -163,7 +162,7 @@ pub fn residual<T: Scalar>(j: &Junction<T>, a: T) -> Option<(T, StaticValues<T>)
 /// [`residual`] from the two sides' jets at `a` (first derivatives suffice: [`Junction::first_order_jet`]).
 pub fn residual_with_jets<T: Scalar>(j: &Junction<T>, a: T, jm: Jet<T>, jp: Jet<T>) -> Option<(T, StaticValues<T>)> {
     let re = |j: &Jet<T>| Jet { a: j.a.map(|x| x.re()), b: j.b.map(|x| x.re()) };
-    admissible::static_site(j.kind, [j.keep_minus, j.keep_plus], a.re(), [&re(&jm), &re(&jp)]).ok()?;
+    admissible::static_site(j.shape.kind, j.shape.keep, a.re(), [&re(&jm), &re(&jp)]).ok()?;
     let stress = j.stress_with_jets(&jm, &jp, a, T::zero(), T::zero()).ok()?;
     let p_law = j.eos_at(stress.sigma(), |t| t)?;
     let f = stress.pressure() - p_law;
@@ -171,6 +170,14 @@ pub fn residual_with_jets<T: Scalar>(j: &Junction<T>, a: T, jm: Jet<T>, jp: Jet<
         return None;
     }
     Some((f, StaticValues { a, stress, jets: [jm, jp] }))
+}
+
+/// True when the law holds at a radius: |p0 - P(sigma0)| <= `Tolerances::statics.law_residual` (|p0| + |sigma0|),
+/// with `f` = p0 - P(sigma0) as [`residual`] gives it. The one test of "is this a static radius of the law" for
+/// a radius given by the user (evolve's static start, derive's warning); |sigma0| in the scale keeps the test
+/// meaningful where p0 and P(sigma0) both vanish (a dust shell).
+pub fn law_holds(f: f64, sigma0: f64, p0: f64) -> bool {
+    f.abs() <= crate::tolerances::TOL.statics.law_residual * (p0.abs() + sigma0.abs()).max(f64::MIN_POSITIVE)
 }
 
 /// Parameters lifted into a dual type (constants).

@@ -94,9 +94,7 @@ pub fn run(a: MapArgs) -> Result<()> {
             if let Some(b) = bar {
                 b.finish_and_clear();
             }
-            for p in written {
-                eprintln!("wrote {}", p.display());
-            }
+            report_written(&written.map, &written.written);
             Ok(())
         }
     }
@@ -131,8 +129,16 @@ pub struct MergeArgs {
 pub fn run_merge(a: MergeArgs) -> Result<()> {
     let fig_opts = a.figure.options()?;
     let merged = merge_parts(&a.parts, &a.out, &fig_opts)?;
-    for p in merged.written {
+    report_written(&merged.map, &merged.written);
+    Ok(())
+}
+
+/// The note of a map without a figure, then the files written (stderr).
+fn report_written(map: &junctura::export::map::MapMeta, written: &[std::path::PathBuf]) {
+    if let Some(note) = &map.figure_note {
+        junctura::output::warn(note);
+    }
+    for p in written {
         eprintln!("wrote {}", p.display());
     }
-    Ok(())
 }

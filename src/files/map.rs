@@ -3,15 +3,26 @@
 
 use crate::error::Result;
 use crate::export::csv::map_rows;
-use crate::export::map::{csv_header, map_provenance, meta_with_data, DataDigest};
+use crate::export::map::{csv_header, map_provenance, meta_with_data, DataDigest, MapMeta};
 use crate::output::{write_atomic, AtomicFile};
 use crate::report::map::{map_file_figure, no_figure_note, MAX_KEPT_CELLS};
 use crate::scan::{evaluate_lines, Cell, MapSpec, Summary};
 use crate::scenario::Scenario;
+use serde::Serialize;
 use std::path::{Path, PathBuf};
 
+/// What [`write_map`] wrote.
+#[derive(Debug, Clone, Serialize)]
+pub struct MapFiles {
+    /// The metadata as written to the JSON file: scenario, parameters, axes, counts, the data rows and their
+    /// SHA-256, and why there is no figure if a whole map has none (`figure_note`, for the caller to show).
+    pub map: MapMeta,
+    /// The files written, in order: the CSV, the JSON, then the figure files (if any).
+    pub written: Vec<PathBuf>,
+}
+
 /// Evaluate `lines` in chunks, streaming the CSV (`map.csv`, or `map.part-K-of-N.csv` for a shard), then write
-/// the JSON metadata and (whole maps up to [`MAX_KEPT_CELLS`]) the figure; returns the files written.
+/// the JSON metadata and (whole maps up to [`MAX_KEPT_CELLS`]) the figure.
 /// `progress(done, total)` is called after each chunk with the number of lines done.
 pub fn write_map(
     s: &Scenario,
@@ -21,7 +32,7 @@ pub fn write_map(
     dir: &Path,
     fig_opts: &crate::plot::FigureOptions,
     progress: &dyn Fn(usize, usize),
-) -> Result<Vec<PathBuf>> {
+) -> Result<MapFiles> {
     let stem = match shard {
         Some((k, n)) => format!("map.part-{}-of-{}", k + 1, n),
         None => "map".to_string(),
@@ -58,9 +69,7 @@ pub fn write_map(
     csv.finish()?;
     let mut m = meta_with_data(s, spec, summary, shard, digest);
     if shard.is_none() && !keep_cells {
-        let note = no_figure_note(spec);
-        crate::output::warn(&note);
-        m.figure_note = Some(note);
+        m.figure_note = Some(no_figure_note(spec));
     }
     let json_path = dir.join(format!("{stem}.json"));
     let json = serde_json::to_string_pretty(&m).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"));
@@ -70,5 +79,5 @@ pub fn write_map(
         let fig = map_file_figure(s, spec, &classes, map_provenance(s, spec), fig_opts);
         written.extend(crate::plot::write_figure(&fig, dir, "map")?);
     }
-    Ok(written)
+    Ok(MapFiles { map: m, written })
 }

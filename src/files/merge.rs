@@ -26,7 +26,8 @@ pub struct Merged {
     /// The part metadata files, in shard order.
     pub parts: Vec<PathBuf>,
     /// The whole map's metadata as written to `map.json`: scenario, parameters, axes, the counts summed over
-    /// the parts (`summary`), the data rows and their SHA-256, and why there is no figure if there is none.
+    /// the parts (`summary`), the data rows and their SHA-256, and why there is no figure if there is none
+    /// (`figure_note`, for the caller to show).
     pub map: MapMeta,
     /// The files written, in order: `map.csv`, `map.json`, then the figure files (if any).
     pub written: Vec<PathBuf>,
@@ -223,9 +224,7 @@ pub fn merge_parts(parts: &[PathBuf], out: &Path, figure: &FigureOptions) -> Res
     m.summary = total;
     (m.data_rows, m.data_sha256) = whole.finish();
     if !keep {
-        let note = no_figure_note(&spec);
-        crate::output::warn(&note);
-        m.figure_note = Some(note);
+        m.figure_note = Some(no_figure_note(&spec));
     }
     let json_path = out.join("map.json");
     write_atomic(&json_path, pretty(&m).as_bytes())?;

@@ -6,6 +6,6 @@ pub mod map;
 pub mod merge;
 pub mod report;
 
-pub use map::write_map;
+pub use map::{write_map, MapFiles};
 pub use merge::{merge_parts, Merged};
 pub use report::{write_report, ReportOptions};

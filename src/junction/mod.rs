@@ -55,7 +55,10 @@ pub fn phi_prime(jet: &Jet<f64>) -> f64 {
 }
 
 /// Phi' = A'/(2A) - B'/(2B) from A, A', B and B' of any number type (a dual number carries its radial
-/// derivatives): the one place the formula is written.
+/// derivatives): the one place the formula is written. Phi is the redshift function of the metric written as
+/// -e^{2 Phi} B dt^2 + dr^2/B + r^2 dOmega^2, the form of Garcia, Lobo & Visser 2012 (Phys. Rev. D 86, 044026;
+/// from memory), so A = e^{2 Phi} B and Phi = ln(A/B)/2; Phi' = 0 where A = B. It enters K^s_s = (n^r)^(-1)
+/// (Rddot + eps B'/2) + n^r Phi' (module docs).
 #[inline(always)]
 pub fn redshift_gradient<U: Scalar>(a: U, a1: U, b: U, b1: U) -> U {
     a1 / (a * 2.0) - b1 / (b * 2.0)
